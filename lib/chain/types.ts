@@ -1,0 +1,291 @@
+/**
+ * TypeScript shape of a chain document (`chainwright.chain/1`) after validation
+ * and with every default filled in. The zod schema in `schema.ts` produces
+ * exactly this; the engine consumes only this. Quantities are SI base units
+ * (ohm, farad, volt, ampere, hertz, second, kelvin, V/s, V/√Hz, A/√Hz).
+ * See shared chain-format.md for the meaning of every field.
+ */
+
+export const CHAIN_FORMAT = "chainwright.chain/1" as const;
+export const ANALYSIS_FORMAT = "chainwright.analysis/1" as const;
+
+export type Safety = "low-voltage" | "mains-connected" | "body-connected";
+
+export interface AnalysisSettings {
+  fMin: number;
+  fMax: number;
+  points: number;
+  temperatureK: number;
+  noiseLow: number;
+  /** null means fMax */
+  noiseHigh: number | null;
+  /** null means the ADC's ideal SNR */
+  aliasTargetDb: number | null;
+}
+
+export interface Tolerances {
+  resistor: number;
+  capacitor: number;
+}
+
+/** An op-amp model. Every field optional: missing means ideal in that respect. */
+export interface Part {
+  label?: string;
+  /** gain-bandwidth product, Hz */
+  gbw?: number;
+  /** open-loop DC gain, V/V (never dB) */
+  aol?: number;
+  /** V/s */
+  slewRate?: number;
+  /** input offset voltage magnitude, V */
+  vos?: number;
+  /** input bias current magnitude, A */
+  ib?: number;
+  /** input voltage noise density, V/√Hz */
+  en?: number;
+  /** input current noise density, A/√Hz */
+  in?: number;
+  /** 1/f corner of en, Hz */
+  enCorner?: number;
+  /** 1/f corner of in, Hz */
+  inCorner?: number;
+  /** how close the output gets to the low rail, V */
+  swingLow?: number;
+  swingHigh?: number;
+  /** input common-mode limit relative to the low rail, V (negative: beyond the rail) */
+  inputLow?: number;
+  inputHigh?: number;
+}
+
+export interface Rails {
+  low: number;
+  high: number;
+}
+
+export interface Position {
+  x: number;
+  y: number;
+}
+
+export interface SourceParams {
+  dc: number;
+  dcSpread: number;
+  amplitude: number;
+  fLow: number;
+  fHigh: number;
+  resistance: number;
+  noiseDensity: number;
+  safety: Safety;
+}
+export interface InvertingParams { r1: number; r2: number; vref: number }
+export interface NonInvertingParams { rf: number | null; rg: number | null; vref: number }
+export interface LossyIntegratorParams { r1: number; r2: number; c2: number; vref: number }
+export interface IntegratorParams { r1: number; c2: number; vref: number }
+export interface RcLowpassParams { r: number; c: number }
+export interface RcHighpassParams { c: number; r: number; vbias: number }
+export interface SallenKeyLowpassParams { r1: number; r2: number; c1: number; c2: number; vref: number }
+export interface MfbLowpassParams { r1: number; r2: number; r3: number; c1: number; c2: number; vref: number }
+export interface AdcParams {
+  bits: number;
+  sampleRate: number;
+  vinLow: number;
+  vinHigh: number;
+  /** null means infinite */
+  inputResistance: number | null;
+}
+
+interface NodeBase {
+  id: string;
+  label?: string;
+  position?: Position;
+}
+interface OpAmpNodeBase extends NodeBase {
+  /** key into Chain.parts; null or absent = ideal op-amp */
+  part?: string | null;
+  rails: Rails;
+}
+
+export type SourceNode = NodeBase & { kind: "source"; params: SourceParams };
+export type InvertingNode = OpAmpNodeBase & { kind: "inverting"; params: InvertingParams };
+export type NonInvertingNode = OpAmpNodeBase & { kind: "noninverting"; params: NonInvertingParams };
+export type LossyIntegratorNode = OpAmpNodeBase & { kind: "lossyIntegrator"; params: LossyIntegratorParams };
+export type IntegratorNode = OpAmpNodeBase & { kind: "integrator"; params: IntegratorParams };
+export type RcLowpassNode = NodeBase & { kind: "rcLowpass"; params: RcLowpassParams };
+export type RcHighpassNode = NodeBase & { kind: "rcHighpass"; params: RcHighpassParams };
+export type SallenKeyLowpassNode = OpAmpNodeBase & { kind: "sallenKeyLowpass"; params: SallenKeyLowpassParams };
+export type MfbLowpassNode = OpAmpNodeBase & { kind: "mfbLowpass"; params: MfbLowpassParams };
+export type AdcNode = NodeBase & { kind: "adc"; params: AdcParams };
+
+export type ChainNode =
+  | SourceNode
+  | InvertingNode
+  | NonInvertingNode
+  | LossyIntegratorNode
+  | IntegratorNode
+  | RcLowpassNode
+  | RcHighpassNode
+  | SallenKeyLowpassNode
+  | MfbLowpassNode
+  | AdcNode;
+
+export type NodeKind = ChainNode["kind"];
+export type OpAmpNode = Extract<ChainNode, { rails: Rails }>;
+export type OpAmpKind = OpAmpNode["kind"];
+export type PassiveKind = "rcLowpass" | "rcHighpass";
+
+export const NODE_KINDS: readonly NodeKind[] = [
+  "source",
+  "inverting",
+  "noninverting",
+  "lossyIntegrator",
+  "integrator",
+  "rcLowpass",
+  "rcHighpass",
+  "sallenKeyLowpass",
+  "mfbLowpass",
+  "adc",
+];
+export const OPAMP_KINDS: readonly OpAmpKind[] = [
+  "inverting",
+  "noninverting",
+  "lossyIntegrator",
+  "integrator",
+  "sallenKeyLowpass",
+  "mfbLowpass",
+];
+
+export interface Edge {
+  from: string;
+  to: string;
+}
+
+/** A complete chain with defaults applied (what the engine analyses). */
+export interface Chain {
+  format: typeof CHAIN_FORMAT;
+  name: string;
+  notes: string;
+  analysis: AnalysisSettings;
+  tolerances: Tolerances;
+  parts: Record<string, Part>;
+  nodes: ChainNode[];
+  edges: Edge[];
+}
+
+/** A validation problem: `path` like `nodes[1].params.r1`, `edges`, `nodes`. */
+export interface ChainIssue {
+  path: string;
+  message: string;
+}
+
+// ---------------------------------------------------------------------------
+// Analysis result (`chainwright.analysis/1`), see chain-format.md "Analysis result".
+
+export type StageStatus = "ok" | "tight" | "clip";
+
+export type WarningCode =
+  | "rail-clip"
+  | "rail-tight"
+  | "no-dc-path"
+  | "input-range"
+  | "slew"
+  | "adc-range"
+  | "alias"
+  | "nyquist"
+  | "safety"
+  | "pole";
+
+export interface AnalysisWarning {
+  nodeId: string;
+  code: WarningCode | string;
+  message: string;
+}
+
+export interface Interval {
+  min: number;
+  max: number;
+}
+
+export interface StageResult {
+  id: string;
+  kind: NodeKind;
+  label?: string;
+  /** DC gain from the stage's input terminal to its output, V/V; null when unbounded */
+  dcGain: number | null;
+  /** Hz */
+  f0: number | null;
+  q: number | null;
+  dcOut: Interval | null;
+  /** V peak */
+  acPeak: number | null;
+  peakOut: Interval | null;
+  usable?: { low: number; high: number };
+  /** (+) input interval (DC ± AC peak) and its allowed range, op-amp stages only */
+  inputRange?: { peak: Interval | null; allowed: { low: number; high: number } };
+  /** op-amp stages only */
+  status?: StageStatus;
+  /** V/s */
+  slewNeeded?: number | null;
+  slewRate?: number | null;
+  [extra: string]: unknown;
+}
+
+export interface NoiseContribution {
+  /** node id the noise source belongs to ("src" for the source) */
+  nodeId: string;
+  /** e.g. "r1", "en", "in-", "in+", "source", "resistance" */
+  element: string;
+  /** V rms at the path's end over [low, high] */
+  rms: number;
+  /** share of outputRms² (0..1) */
+  share: number;
+  [extra: string]: unknown;
+}
+
+export interface PathNoise {
+  /** V rms over [noiseLow, noiseHigh] */
+  outputRms: number;
+  low: number;
+  high: number;
+  /** V rms over [noiseLow, fMax] */
+  totalRms: number;
+  contributions: NoiseContribution[];
+  [extra: string]: unknown;
+}
+
+export interface AdcResult {
+  id: string;
+  lsb: number;
+  quantNoiseRms: number;
+  idealSnrDb: number;
+  snrDb: number | null;
+  enob: number | null;
+  aliasAttenuationDb: number | null;
+  pathDcGain: number | null;
+  rangeUse: number | null;
+  status: StageStatus;
+  [extra: string]: unknown;
+}
+
+export interface PathResult {
+  nodes: string[];
+  response: { f: number[]; magDb: (number | null)[]; phaseDeg: (number | null)[] };
+  stages: StageResult[];
+  noise: PathNoise;
+  adc: AdcResult | null;
+  [extra: string]: unknown;
+}
+
+export interface AnalysisResult {
+  format: typeof ANALYSIS_FORMAT;
+  engine: string;
+  paths: PathResult[];
+  warnings: AnalysisWarning[];
+  [extra: string]: unknown;
+}
+
+export interface AnalyzeOptions {
+  /** evaluate the response at exactly these frequencies (Hz) instead of the log grid */
+  freqs?: number[];
+  /** override analysis.points */
+  points?: number;
+}
