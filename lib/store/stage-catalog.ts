@@ -1,0 +1,181 @@
+/**
+ * What the editor knows about each node kind: its name on the shelf, its fields with units, which are
+ * required, and the starting values of a freshly placed node. The engineering meaning of every field is in
+ * chain-format.md; this file only describes how the editor presents it.
+ */
+import type { NodeKind } from "@/lib/chain/types";
+
+export type FieldUnit = "ohm" | "farad" | "volt" | "hertz" | "V/√Hz" | "none";
+
+export interface FieldSpec {
+  key: string;
+  label: string;
+  unit: FieldUnit;
+  /** required for a complete chain */
+  required: boolean;
+  /** null is a meaningful value (e.g. rg null = follower, inputResistance null = infinite) */
+  nullable?: boolean;
+  /** what an empty nullable field means, shown as a hint */
+  nullMeaning?: string;
+  /** strictly positive (resistors, capacitors, sample rate) */
+  positive?: boolean;
+  /** must be ≥ 0 */
+  nonNegative?: boolean;
+  integer?: boolean;
+  /** offer nearest preferred (E-series) values */
+  preferred?: boolean;
+  /** the document's default when omitted */
+  defaultValue?: number | null;
+}
+
+export interface KindSpec {
+  kind: NodeKind;
+  /** short name on the shelf and cards */
+  title: string;
+  /** one line on what it is, for the shelf's tooltip */
+  blurb: string;
+  opAmp: boolean;
+  fields: FieldSpec[];
+  /** values of a newly placed node; rails are never pre-set here (they come from the chain's last used) */
+  starter: Record<string, number | string | null>;
+  /** fields shown on the card, in order */
+  cardFields: string[];
+}
+
+const R = (key: string, label = key): FieldSpec => ({ key, label, unit: "ohm", required: true, positive: true, preferred: true });
+const C = (key: string, label = key): FieldSpec => ({ key, label, unit: "farad", required: true, positive: true, preferred: true });
+const VREF = (key = "vref"): FieldSpec => ({ key, label: key, unit: "volt", required: false, defaultValue: 0 });
+
+export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
+  source: {
+    kind: "source",
+    title: "Source",
+    blurb: "The sensor: an EMF with its DC level, signal peak and band, behind a resistance",
+    opAmp: false,
+    fields: [
+      { key: "dc", label: "DC level", unit: "volt", required: true },
+      { key: "dcSpread", label: "DC spread ±", unit: "volt", required: false, nonNegative: true, defaultValue: 0 },
+      { key: "amplitude", label: "Signal peak", unit: "volt", required: true, nonNegative: true },
+      { key: "fLow", label: "Band low", unit: "hertz", required: true, nonNegative: true },
+      { key: "fHigh", label: "Band high", unit: "hertz", required: true, positive: true },
+      { key: "resistance", label: "Resistance", unit: "ohm", required: false, nonNegative: true, defaultValue: 0 },
+      { key: "noiseDensity", label: "Noise density", unit: "V/√Hz", required: false, nonNegative: true, defaultValue: 0 },
+    ],
+    starter: { dc: 0, amplitude: 0.1, fLow: 1, fHigh: 1000, safety: "low-voltage" },
+    cardFields: ["dc", "amplitude", "fLow", "fHigh"],
+  },
+  inverting: {
+    kind: "inverting",
+    title: "Inverting gain",
+    blurb: "Gain −r2/r1 with the (+) input at vref",
+    opAmp: true,
+    fields: [R("r1"), R("r2"), VREF()],
+    starter: { r1: 10e3, r2: 10e3 },
+    cardFields: ["r1", "r2"],
+  },
+  noninverting: {
+    kind: "noninverting",
+    title: "Non-inverting gain",
+    blurb: "Gain 1 + rf/rg; leave rg empty for a follower",
+    opAmp: true,
+    fields: [
+      { key: "rf", label: "rf", unit: "ohm", required: false, positive: true, preferred: true, nullable: true, nullMeaning: "none (direct)" },
+      { key: "rg", label: "rg", unit: "ohm", required: false, positive: true, preferred: true, nullable: true, nullMeaning: "none (follower)" },
+      VREF(),
+    ],
+    starter: { rf: 10e3, rg: 10e3 },
+    cardFields: ["rf", "rg"],
+  },
+  lossyIntegrator: {
+    kind: "lossyIntegrator",
+    title: "Lossy integrator",
+    blurb: "Active first-order low-pass: −(r2/r1)/(1 + s·r2·c2)",
+    opAmp: true,
+    fields: [R("r1"), R("r2"), C("c2"), VREF()],
+    starter: { r1: 10e3, r2: 100e3, c2: 10e-9 },
+    cardFields: ["r1", "r2", "c2"],
+  },
+  integrator: {
+    kind: "integrator",
+    title: "Integrator",
+    blurb: "−1/(s·r1·c2): no DC feedback path, its output runs to a rail",
+    opAmp: true,
+    fields: [R("r1"), C("c2"), VREF()],
+    starter: { r1: 10e3, c2: 100e-9 },
+    cardFields: ["r1", "c2"],
+  },
+  rcLowpass: {
+    kind: "rcLowpass",
+    title: "RC low-pass",
+    blurb: "Passive series r, shunt c; loaded by what it drives",
+    opAmp: false,
+    fields: [R("r"), C("c")],
+    starter: { r: 10e3, c: 10e-9 },
+    cardFields: ["r", "c"],
+  },
+  rcHighpass: {
+    kind: "rcHighpass",
+    title: "RC high-pass",
+    blurb: "Series c, r to vbias: AC coupling",
+    opAmp: false,
+    fields: [C("c"), R("r"), VREF("vbias")],
+    starter: { c: 1e-6, r: 100e3 },
+    cardFields: ["c", "r"],
+  },
+  sallenKeyLowpass: {
+    kind: "sallenKeyLowpass",
+    title: "Sallen-Key low-pass",
+    blurb: "Unity-gain second-order low-pass",
+    opAmp: true,
+    fields: [R("r1"), R("r2"), C("c1"), C("c2"), VREF()],
+    starter: { r1: 10e3, r2: 10e3, c1: 22e-9, c2: 10e-9 },
+    cardFields: ["r1", "r2", "c1", "c2"],
+  },
+  mfbLowpass: {
+    kind: "mfbLowpass",
+    title: "MFB low-pass",
+    blurb: "Multiple-feedback second-order low-pass, gain −r2/r1",
+    opAmp: true,
+    fields: [R("r1"), R("r2"), R("r3"), C("c1"), C("c2"), VREF()],
+    starter: { r1: 10e3, r2: 10e3, r3: 10e3, c1: 22e-9, c2: 2.2e-9 },
+    cardFields: ["r1", "r2", "r3", "c1", "c2"],
+  },
+  adc: {
+    kind: "adc",
+    title: "ADC",
+    blurb: "The converter's input pin: bits, sample rate, input range",
+    opAmp: false,
+    fields: [
+      { key: "bits", label: "Bits", unit: "none", required: true, integer: true },
+      { key: "sampleRate", label: "Sample rate", unit: "hertz", required: true, positive: true },
+      { key: "vinLow", label: "Input low", unit: "volt", required: true },
+      { key: "vinHigh", label: "Input high", unit: "volt", required: true },
+      { key: "inputResistance", label: "Input resistance", unit: "ohm", required: false, positive: true, nullable: true, nullMeaning: "infinite" },
+    ],
+    starter: { bits: 16, sampleRate: 10e3, vinLow: 0, vinHigh: 3.3 },
+    cardFields: ["bits", "sampleRate", "vinLow", "vinHigh"],
+  },
+};
+
+/** Shelf order: the path a signal usually takes. */
+export const SHELF_ORDER: NodeKind[] = [
+  "source",
+  "noninverting",
+  "inverting",
+  "lossyIntegrator",
+  "integrator",
+  "rcHighpass",
+  "rcLowpass",
+  "sallenKeyLowpass",
+  "mfbLowpass",
+  "adc",
+];
+
+export const UNIT_SYMBOL: Record<FieldUnit, string> = {
+  ohm: "Ω",
+  farad: "F",
+  volt: "V",
+  hertz: "Hz",
+  "V/√Hz": "V/√Hz",
+  none: "",
+};
