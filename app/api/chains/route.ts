@@ -1,0 +1,56 @@
+import { z } from "zod";
+import { recordAudit } from "@/db/queries/audit";
+import { insertChain, listChainsForUser } from "@/db/queries/chains";
+import { listUserTeams } from "@/db/queries/teams";
+import { checkDraftDocument, starterDraft } from "@/lib/api/chain-documents";
+import { chainView } from "@/lib/api/chain-view";
+import { ApiError } from "@/lib/api/errors";
+import { apiRoute } from "@/lib/api/handler";
+import { parseBody } from "@/lib/api/validate";
+import { requireUser } from "@/lib/auth/guard";
+import { assertTeam, chainActionsFor, effectiveChainRole, teamRights } from "@/lib/auth/permissions";
+
+/** GET /api/chains: every chain the caller may see, newest change first. */
+export const GET = apiRoute(async () => {
+  const user = await requireUser();
+  const chains = listChainsForUser(user.id).map((c) => ({
+    id: c.id,
+    name: c.name,
+    team: { id: c.teamId, name: c.teamName },
+    role: effectiveChainRole(c.teamRole, c.chainRole),
+    actions: [...chainActionsFor(c.teamRole, c.chainRole)],
+    reviewState: c.reviewState,
+    worstStatus: c.worstStatus,
+    version: c.version,
+    updatedAt: c.updatedAt.toISOString(),
+  }));
+  return Response.json({ chains });
+});
+
+const createSchema = z.object({
+  name: z.string().trim().min(1, "1–200 characters").max(200, "1–200 characters").optional(),
+  teamId: z.string().min(1).max(64).optional(),
+  document: z.unknown().optional(),
+});
+
+/**
+ * POST /api/chains `{ name?, teamId?, document? }`: create a chain (draft-level checks) in the
+ * given team, or in the caller's first team where they may create chains. The creator owns it.
+ */
+export const POST = apiRoute(async (request: Request) => {
+  const user = await requireUser();
+  const body = await parseBody(request, createSchema);
+  let teamId = body.teamId;
+  if (teamId) {
+    assertTeam(user.id, "team:create-chain", teamId);
+  } else {
+    teamId = listUserTeams(user.id).find((t) => teamRights(user.id, t.id).has("team:create-chain"))?.id;
+    if (!teamId) throw new ApiError(403, "You are in no team where you may create chains.");
+  }
+  const document = body.document === undefined ? starterDraft(body.name ?? "Untitled chain") : body.document;
+  const { draft, name } = checkDraftDocument(document, body.name);
+  const chain = insertChain({ teamId, name, document: draft, userId: user.id });
+  recordAudit({ actorId: user.id, action: "chain.create", targetType: "chain", targetId: chain.id, teamId });
+  const rights = { teamRole: null, chainRole: "owner" as const, actions: chainActionsFor(null, "owner") };
+  return Response.json({ chain: chainView(chain, rights, true) }, { status: 201, headers: { Location: `/api/chains/${chain.id}` } });
+});

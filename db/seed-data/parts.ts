@@ -1,0 +1,73 @@
+import type { Part } from "@/lib/chain/types";
+
+/**
+ * Generic op-amp classes for the demo library. The figures are typical of each class as a
+ * whole (order-of-magnitude values an engineer would assume before choosing a part), invented
+ * for the demo and not taken from any real device. SI units: Hz, V/V, V/s, V, A, V/√Hz, A/√Hz.
+ */
+export const DEMO_PARTS: Record<string, Part & { label: string }> = {
+  gpBipolar: {
+    label: "General-purpose bipolar",
+    gbw: 1e6,
+    aol: 2e5,
+    slewRate: 0.5e6,
+    vos: 2e-3,
+    ib: 80e-9,
+    en: 18e-9,
+    in: 0.5e-12,
+    enCorner: 20,
+    inCorner: 200,
+    swingLow: 1.5,
+    swingHigh: 1.5,
+    inputLow: 2,
+    inputHigh: 1.5,
+  },
+  precisionCmosRr: {
+    label: "Precision CMOS rail-to-rail",
+    gbw: 1e6,
+    aol: 1e6,
+    slewRate: 0.4e6,
+    vos: 50e-6,
+    ib: 10e-12,
+    en: 22e-9,
+    in: 1e-15,
+    enCorner: 10,
+    inCorner: 0,
+    swingLow: 0.02,
+    swingHigh: 0.02,
+    inputLow: -0.1,
+    inputHigh: -0.1,
+  },
+  lowNoiseBipolar: {
+    label: "Low-noise bipolar",
+    gbw: 8e6,
+    aol: 1e6,
+    slewRate: 3e6,
+    vos: 100e-6,
+    ib: 150e-9,
+    en: 3.5e-9,
+    in: 0.5e-12,
+    enCorner: 3,
+    inCorner: 150,
+    swingLow: 1.2,
+    swingHigh: 1.2,
+    inputLow: 1.5,
+    inputHigh: 1.5,
+  },
+  fastJfet: {
+    label: "Fast JFET-input",
+    gbw: 4e6,
+    aol: 2e5,
+    slewRate: 13e6,
+    vos: 3e-3,
+    ib: 50e-12,
+    en: 18e-9,
+    in: 10e-15,
+    enCorner: 100,
+    inCorner: 0,
+    swingLow: 1.5,
+    swingHigh: 1.5,
+    inputLow: 3,
+    inputHigh: 0.5,
+  },
+};

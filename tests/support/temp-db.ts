@@ -1,0 +1,27 @@
+import { mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { closeDb, getDb } from "@/db/connection";
+import { resetEnvCache } from "@/lib/env";
+
+/**
+ * Point the app's database at a fresh SQLite file in a temp folder (migrated on first use).
+ * Call in beforeEach/beforeAll; the returned cleanup closes the connection and removes the folder.
+ */
+export function useTempDatabase(): { dir: string; file: string; cleanup: () => void } {
+  closeDb();
+  const dir = mkdtempSync(path.join(tmpdir(), "chainwright-test-"));
+  const file = path.join(dir, "test.db");
+  process.env.DATABASE_PATH = file;
+  resetEnvCache();
+  getDb();
+  return {
+    dir,
+    file,
+    cleanup() {
+      closeDb();
+      rmSync(dir, { recursive: true, force: true });
+      resetEnvCache();
+    },
+  };
+}
