@@ -13,7 +13,7 @@ export interface DraftNode {
   id: string;
   kind: NodeKind;
   label?: string;
-  params: Record<string, ParamValue>;
+  params: Record<string, ParamValue | undefined>;
   /** op-amp stages: key into parts; null/absent = ideal */
   part?: string | null;
   /** op-amp stages: required for a complete chain, absent while not typed yet */

@@ -86,6 +86,7 @@ export interface EditorActions {
   select(ids: string[], edges?: string[]): void;
   rename(name: string): void;
   setNotes(notes: string): void;
+  setAnalysis(key: "fMin" | "fMax" | "points", value: number | undefined): void;
   setPlotMode(mode: PlotMode): void;
   setPlotPathEnd(id: string | null): void;
   setNotice(text: string | null): void;
@@ -345,6 +346,13 @@ export function createEditorStore(init: EditorInit): EditorStore {
       setNotes(notes) {
         const { doc } = get();
         commit({ ...doc, notes }, { coalesceKey: "notes" });
+      },
+      setAnalysis(key, value) {
+        const { doc } = get();
+        const analysis = { ...(doc.analysis ?? {}) };
+        if (value === undefined) delete analysis[key];
+        else analysis[key] = value;
+        commit({ ...doc, analysis }, { coalesceKey: `analysis.${key}` });
       },
       setPlotMode: (plotMode) => set({ plotMode }),
       setPlotPathEnd: (plotPathEnd) => set({ plotPathEnd }),

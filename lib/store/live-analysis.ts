@@ -16,6 +16,8 @@ export interface LiveAnalysis {
   stageById: Record<string, StageResult>;
   adcById: Record<string, AdcResult>;
   warningsByNode: Record<string, AnalysisWarning[]>;
+  /** for nodes left out of the analysis: why, in words */
+  reasonById: Record<string, string>;
   /** wall time of the analysis, ms */
   ms: number;
   /** an engine failure, in words (never expected; shown rather than swallowed) */

@@ -4,28 +4,20 @@
  * chain-format.md; this file only describes how the editor presents it.
  */
 import type { NodeKind } from "@/lib/chain/types";
+import type { QuantityUnit } from "@/lib/units";
+import { PARAM_SPECS, type ParamSpec } from "@/lib/chain/params";
 
-export type FieldUnit = "ohm" | "farad" | "volt" | "hertz" | "V/√Hz" | "none";
+export type FieldUnit = Extract<QuantityUnit, "ohm" | "farad" | "volt" | "hertz" | "V/√Hz" | "none">;
 
+/**
+ * How the editor presents one param. The rule (unit, limit, whether null means something, whether the
+ * param is required, its default) is the schema's own (lib/chain/params.ts), looked up with `paramRule`.
+ */
 export interface FieldSpec {
   key: string;
   label: string;
-  unit: FieldUnit;
-  /** required for a complete chain */
-  required: boolean;
-  /** null is a meaningful value (e.g. rg null = follower, inputResistance null = infinite) */
-  nullable?: boolean;
-  /** what an empty nullable field means, shown as a hint */
-  nullMeaning?: string;
-  /** strictly positive (resistors, capacitors, sample rate) */
-  positive?: boolean;
-  /** must be ≥ 0 */
-  nonNegative?: boolean;
-  integer?: boolean;
   /** offer nearest preferred (E-series) values */
   preferred?: boolean;
-  /** the document's default when omitted */
-  defaultValue?: number | null;
 }
 
 export interface KindSpec {
@@ -42,9 +34,9 @@ export interface KindSpec {
   cardFields: string[];
 }
 
-const R = (key: string, label = key): FieldSpec => ({ key, label, unit: "ohm", required: true, positive: true, preferred: true });
-const C = (key: string, label = key): FieldSpec => ({ key, label, unit: "farad", required: true, positive: true, preferred: true });
-const VREF = (key = "vref"): FieldSpec => ({ key, label: key, unit: "volt", required: false, defaultValue: 0 });
+const R = (key: string, label = key): FieldSpec => ({ key, label, preferred: true });
+const C = R;
+const VREF = (key = "vref"): FieldSpec => ({ key, label: key });
 
 export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
   source: {
@@ -53,13 +45,13 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
     blurb: "The sensor: an EMF with its DC level, signal peak and band, behind a resistance",
     opAmp: false,
     fields: [
-      { key: "dc", label: "DC level", unit: "volt", required: true },
-      { key: "dcSpread", label: "DC spread ±", unit: "volt", required: false, nonNegative: true, defaultValue: 0 },
-      { key: "amplitude", label: "Signal peak", unit: "volt", required: true, nonNegative: true },
-      { key: "fLow", label: "Band low", unit: "hertz", required: true, nonNegative: true },
-      { key: "fHigh", label: "Band high", unit: "hertz", required: true, positive: true },
-      { key: "resistance", label: "Resistance", unit: "ohm", required: false, nonNegative: true, defaultValue: 0 },
-      { key: "noiseDensity", label: "Noise density", unit: "V/√Hz", required: false, nonNegative: true, defaultValue: 0 },
+      { key: "dc", label: "DC level" },
+      { key: "dcSpread", label: "DC spread ±" },
+      { key: "amplitude", label: "Signal peak" },
+      { key: "fLow", label: "Band low" },
+      { key: "fHigh", label: "Band high" },
+      { key: "resistance", label: "Resistance" },
+      { key: "noiseDensity", label: "Noise density" },
     ],
     starter: { dc: 0, amplitude: 0.1, fLow: 1, fHigh: 1000, safety: "low-voltage" },
     cardFields: ["dc", "amplitude", "fLow", "fHigh"],
@@ -79,8 +71,8 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
     blurb: "Gain 1 + rf/rg; leave rg empty for a follower",
     opAmp: true,
     fields: [
-      { key: "rf", label: "rf", unit: "ohm", required: false, positive: true, preferred: true, nullable: true, nullMeaning: "none (direct)" },
-      { key: "rg", label: "rg", unit: "ohm", required: false, positive: true, preferred: true, nullable: true, nullMeaning: "none (follower)" },
+      R("rf"),
+      R("rg"),
       VREF(),
     ],
     starter: { rf: 10e3, rg: 10e3 },
@@ -146,11 +138,11 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
     blurb: "The converter's input pin: bits, sample rate, input range",
     opAmp: false,
     fields: [
-      { key: "bits", label: "Bits", unit: "none", required: true, integer: true },
-      { key: "sampleRate", label: "Sample rate", unit: "hertz", required: true, positive: true },
-      { key: "vinLow", label: "Input low", unit: "volt", required: true },
-      { key: "vinHigh", label: "Input high", unit: "volt", required: true },
-      { key: "inputResistance", label: "Input resistance", unit: "ohm", required: false, positive: true, nullable: true, nullMeaning: "infinite" },
+      { key: "bits", label: "Bits" },
+      { key: "sampleRate", label: "Sample rate" },
+      { key: "vinLow", label: "Input low" },
+      { key: "vinHigh", label: "Input high" },
+      { key: "inputResistance", label: "Input resistance" },
     ],
     starter: { bits: 16, sampleRate: 10e3, vinLow: 0, vinHigh: 3.3 },
     cardFields: ["bits", "sampleRate", "vinLow", "vinHigh"],
@@ -171,11 +163,13 @@ export const SHELF_ORDER: NodeKind[] = [
   "adc",
 ];
 
-export const UNIT_SYMBOL: Record<FieldUnit, string> = {
-  ohm: "Ω",
-  farad: "F",
-  volt: "V",
-  hertz: "Hz",
-  "V/√Hz": "V/√Hz",
-  none: "",
-};
+/** The schema's rule for a param (unit, limit, required, default). */
+export function paramRule(kind: NodeKind, key: string): ParamSpec | undefined {
+  return PARAM_SPECS[kind][key];
+}
+
+/** The unit a param is typed in. */
+export function paramUnit(kind: NodeKind, key: string): FieldUnit {
+  const u = PARAM_SPECS[kind][key]?.rule?.unit;
+  return (u === "ohm" || u === "farad" || u === "volt" || u === "hertz" || u === "V/√Hz" ? u : "none") as FieldUnit;
+}

@@ -1,0 +1,26 @@
+import { describe, expect, it } from "vitest";
+import { TEMPLATES, findTemplate } from "@/lib/templates";
+import { validateChain, validateDraft } from "@/lib/chain/schema";
+
+describe("TEMPLATES", () => {
+  it("offers a blank sheet that is a valid draft with nothing on it", () => {
+    const blank = findTemplate("blank")!.make();
+    expect(blank.nodes).toEqual([]);
+    expect(validateDraft(blank).ok).toBe(true);
+  });
+
+  for (const t of TEMPLATES.filter((t) => t.key !== "blank")) {
+    it(`${t.key} is a complete chain by the shared schema`, () => {
+      const r = validateChain(t.make());
+      if (!r.ok) throw new Error(JSON.stringify(r.errors));
+      expect(r.chain.nodes.some((n) => n.kind === "adc")).toBe(true);
+    });
+  }
+
+  it("hands out a fresh copy each time", () => {
+    const t = findTemplate("hull-vibration")!;
+    const a = t.make();
+    a.nodes[0].params.dc = 3;
+    expect(t.make().nodes[0].params.dc).toBe(0);
+  });
+});
