@@ -171,6 +171,23 @@ export interface Chain {
   edges: Edge[];
 }
 
+/**
+ * A node of a draft (chain-format.md: "two levels of validity"): every param present is valid, but any
+ * param may be missing, and an op-amp stage may not have its rails yet.
+ */
+export type DraftChainNode = ChainNode extends infer N
+  ? N extends { rails: Rails; params: infer P }
+    ? Omit<N, "params" | "rails"> & { params: Partial<P>; rails?: Rails }
+    : N extends { params: infer P }
+      ? Omit<N, "params"> & { params: Partial<P> }
+      : never
+  : never;
+
+/** A draft with the document-level defaults applied (notes, analysis, tolerances, parts). */
+export interface DraftChain extends Omit<Chain, "nodes"> {
+  nodes: DraftChainNode[];
+}
+
 /** A validation problem: `path` like `nodes[1].params.r1`, `edges`, `nodes`. */
 export interface ChainIssue {
   path: string;

@@ -1,0 +1,106 @@
+/**
+ * The params of every stage kind, as chain-format.md "Stage kinds" lists them: unit, limit, whether the
+ * param is required in a complete chain, and the default the schema fills in when it is absent.
+ * The schema for both levels is built from this one table, and the editor may read it too.
+ */
+import type { NodeKind, Safety } from "./types";
+import { FARADS, OHMS, VOLTS, type NumberRule } from "./fields";
+
+export interface ParamSpec {
+  /** numeric params */
+  rule?: NumberRule;
+  /** word params (the source's safety) */
+  words?: readonly string[];
+  /** required in a complete chain (a draft may leave any param out) */
+  required: boolean;
+  /** filled in when absent from a complete chain */
+  default?: number | string | null;
+}
+
+export const SAFETY_VALUES: readonly Safety[] = ["low-voltage", "mains-connected", "body-connected"];
+
+const req = (rule: NumberRule): ParamSpec => ({ rule, required: true });
+const opt = (rule: NumberRule, dflt: number | null): ParamSpec => ({ rule, required: false, default: dflt });
+
+const VREF = opt(VOLTS, 0);
+
+/** Params per kind, in the order chain-format.md gives them. */
+export const PARAM_SPECS: Readonly<Record<NodeKind, Readonly<Record<string, ParamSpec>>>> = {
+  source: {
+    dc: req(VOLTS),
+    dcSpread: opt({ unit: "volt", bound: "nonNegative" }, 0),
+    amplitude: req({ unit: "volt", bound: "nonNegative" }),
+    fLow: req({ unit: "hertz", bound: "nonNegative" }),
+    fHigh: req({ unit: "hertz", bound: "positive" }),
+    resistance: opt({ unit: "ohm", bound: "nonNegative" }, 0),
+    noiseDensity: opt({ unit: "V/√Hz", bound: "nonNegative" }, 0),
+    safety: { words: SAFETY_VALUES, required: false, default: "low-voltage" },
+  },
+  inverting: { r1: req(OHMS), r2: req(OHMS), vref: VREF },
+  noninverting: {
+    // rf is required as soon as rg is given (a gain stage); see crossParamIssues.
+    rf: opt({ ...OHMS, nullMeans: "no feedback resistor (a follower)" }, null),
+    rg: opt({ ...OHMS, nullMeans: "a follower" }, null),
+    vref: VREF,
+  },
+  lossyIntegrator: { r1: req(OHMS), r2: req(OHMS), c2: req(FARADS), vref: VREF },
+  integrator: { r1: req(OHMS), c2: req(FARADS), vref: VREF },
+  rcLowpass: { r: req(OHMS), c: req(FARADS) },
+  rcHighpass: { c: req(FARADS), r: req(OHMS), vbias: opt(VOLTS, 0) },
+  sallenKeyLowpass: { r1: req(OHMS), r2: req(OHMS), c1: req(FARADS), c2: req(FARADS), vref: VREF },
+  mfbLowpass: { r1: req(OHMS), r2: req(OHMS), r3: req(OHMS), c1: req(FARADS), c2: req(FARADS), vref: VREF },
+  adc: {
+    bits: req({ unit: "none", bound: "positive", integer: { min: 1, max: 32 } }),
+    sampleRate: req({ unit: "hertz", bound: "positive" }),
+    vinLow: req(VOLTS),
+    vinHigh: req(VOLTS),
+    inputResistance: opt({ ...OHMS, nullMeans: "an infinite input resistance" }, null),
+  },
+};
+
+/** How each kind is named in messages. */
+export const KIND_WORDS: Readonly<Record<NodeKind, string>> = {
+  source: "a source",
+  inverting: "an inverting stage",
+  noninverting: "a non-inverting stage",
+  lossyIntegrator: "a lossy integrator",
+  integrator: "an integrator",
+  rcLowpass: "an RC low-pass",
+  rcHighpass: "an RC high-pass",
+  sallenKeyLowpass: "a Sallen-Key low-pass",
+  mfbLowpass: "an MFB low-pass",
+  adc: "an ADC",
+};
+
+/** Pairs of params where the first must be strictly below the second, whenever both are present. */
+const ORDERED_PARAMS: Partial<Record<NodeKind, readonly [string, string, string][]>> = {
+  source: [["fLow", "fHigh", "Hz"]],
+  adc: [["vinLow", "vinHigh", "V"]],
+};
+
+export interface ParamIssue {
+  key: string;
+  message: string;
+}
+
+/**
+ * Rules that tie params of one node together. Orderings apply at both levels when both values are there;
+ * "rf is required once rg is given" only makes a chain incomplete, so it applies at the complete level.
+ */
+export function crossParamIssues(kind: NodeKind, params: Record<string, unknown>, complete: boolean): ParamIssue[] {
+  const out: ParamIssue[] = [];
+  for (const [lo, hi, unit] of ORDERED_PARAMS[kind] ?? []) {
+    const a = params[lo];
+    const b = params[hi];
+    if (typeof a === "number" && typeof b === "number" && Number.isFinite(a) && Number.isFinite(b) && !(a < b)) {
+      out.push({ key: hi, message: `must be above ${lo} (${hi} is ${b} ${unit}, ${lo} is ${a} ${unit})` });
+    }
+  }
+  if (complete && kind === "noninverting" && typeof params.rg === "number" && (params.rf === null || params.rf === undefined)) {
+    out.push({
+      key: "rf",
+      message: "is required when rg is given (the gain is 1 + rf/rg); leave rg out or null for a follower",
+    });
+  }
+  return out;
+}
