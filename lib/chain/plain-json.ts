@@ -23,9 +23,8 @@ export function toPlainJson(input: unknown): PlainJsonResult {
 
   const copy = (v: unknown, path: (string | number)[]): unknown => {
     if (++count > MAX_VALUES) throw new Refusal([], `is too large (over ${MAX_VALUES} values)`);
-    if (v === null || typeof v === "string" || typeof v === "number" || typeof v === "boolean" || v === undefined) {
-      return v;
-    }
+    if (typeof v === "number") return v === 0 ? 0 : v; // -0 becomes 0, as it does through JSON
+    if (v === null || typeof v === "string" || typeof v === "boolean" || v === undefined) return v;
     if (typeof v !== "object") throw new Refusal(path, `is not JSON data (a ${typeof v})`);
     if (path.length > MAX_DEPTH) throw new Refusal(path, `is nested too deeply (over ${MAX_DEPTH} levels)`);
     if (onPath.has(v)) throw new Refusal(path, "refers back to itself (a cycle); a document must be a tree of JSON data");

@@ -109,6 +109,5 @@ export function planSubchain(draft: DraftChain, problemOf: (node: DraftChainNode
     const reason = why.get(n.id) ?? `${q(n.id)} is not connected to the source ${q(source.id)}`;
     issues.push({ path: `nodes[${i}]`, message: `${reason}; it is not analysed` });
   });
-  if (keep.size === 1) return none("has nothing to analyse yet: connect a complete stage to the source");
   return { keep, issues };
 }
