@@ -137,6 +137,14 @@ export function series(...ids: string[]): Edge[] {
   return edges;
 }
 
+/** Edges written as "from>to" strings: links("src>rc", "rc>adc"). */
+export function links(...pairs: string[]): Edge[] {
+  return pairs.map((p) => {
+    const [from, to] = p.split(">");
+    return { from, to };
+  });
+}
+
 export interface ChainSpec {
   nodes: ChainNode[];
   /** default: the nodes joined in the order given */
