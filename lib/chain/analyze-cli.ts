@@ -1,0 +1,104 @@
+/**
+ * Argument parsing for `npm run analyze -- FILE.json [--freq 10,100,1e3] [--points N]`, kept apart from
+ * scripts/analyze.ts so it can be tested without starting a process. Frequencies and points may be
+ * written in engineering notation (`--freq 1k,10k`, `--points 2k`).
+ */
+import { parseQuantity } from "../units";
+import type { ChainIssue } from "./types";
+import { FREQ_RULE, MAX_FREQS, POINTS_RULE } from "./analyze-request";
+import { meetsRule, numberMessage, ruleText } from "./fields";
+
+export interface AnalyzeArgs {
+  /** a path, or "-" for standard input */
+  file: string;
+  freqs?: number[];
+  points?: number;
+  help?: boolean;
+}
+
+export const USAGE = `Usage: npm run -s analyze -- FILE.json [--freq 10,100,1e3] [--points N]
+
+Analyses a complete chain document (chainwright.chain/1) and prints the analysis
+(chainwright.analysis/1) as one JSON document on standard output.
+
+  FILE.json        the chain document; - reads it from standard input
+  --freq LIST      evaluate the response at exactly these frequencies in Hz,
+                   comma-separated; engineering notation is fine (1k,10k,1.5MHz)
+  --points N       points of the log-spaced response grid (2 to 20000),
+                   instead of the document's analysis.points
+
+Exit status: 0 when the analysis ran (whatever it found), 2 for invalid input,
+with {"errors":[{"path","message"}]} on standard error, 1 if the analysis itself failed.`;
+
+export type ParseArgsResult = { ok: true; args: AnalyzeArgs } | { ok: false; errors: ChainIssue[] };
+
+const OPTIONS = ["--freq", "--points"];
+
+export function parseAnalyzeArgs(argv: readonly string[]): ParseArgsResult {
+  const errors: ChainIssue[] = [];
+  const files: string[] = [];
+  const seen = new Set<string>();
+  let freqs: number[] | undefined;
+  let points: number | undefined;
+  let help = false;
+
+  for (let i = 0; i < argv.length; i++) {
+    const arg = argv[i];
+    if (arg === "--help" || arg === "-h") {
+      help = true;
+      continue;
+    }
+    if (arg === "-" || !arg.startsWith("-") || /^-\d/.test(arg)) {
+      files.push(arg);
+      continue;
+    }
+    const eq = arg.indexOf("=");
+    const name = eq >= 0 ? arg.slice(0, eq) : arg;
+    if (!OPTIONS.includes(name)) {
+      errors.push({ path: name, message: `is not an option; the options are ${OPTIONS.join(" and ")} (see --help)` });
+      continue;
+    }
+    let value: string | undefined;
+    if (eq >= 0) value = arg.slice(eq + 1);
+    else if (i + 1 < argv.length) value = argv[++i];
+    if (value === undefined || value === "") {
+      errors.push({ path: name, message: name === "--freq" ? "needs a list of frequencies, e.g. --freq 10,100,1k" : "needs a number, e.g. --points 400" });
+      continue;
+    }
+    if (seen.has(name)) {
+      errors.push({ path: name, message: "is given twice; give it once" });
+      continue;
+    }
+    seen.add(name);
+    if (name === "--freq") {
+      const r = parseFreqList(value);
+      if (r.ok) freqs = r.freqs;
+      else errors.push({ path: name, message: r.error });
+    } else {
+      const r = parseQuantity(value, { unit: "none" });
+      if (!r.ok) errors.push({ path: name, message: `must be ${ruleText(POINTS_RULE)}: ${r.error}` });
+      else if (!meetsRule(r.value, POINTS_RULE)) errors.push({ path: name, message: numberMessage(POINTS_RULE, r.value) });
+      else points = r.value;
+    }
+  }
+  if (help) return { ok: true, args: { file: files[0] ?? "", help: true } };
+  if (files.length === 0) errors.push({ path: "file", message: "is required: the chain document to analyse (or - for standard input)" });
+  if (files.length > 1) errors.push({ path: "file", message: `only one document at a time (found ${files.length}: ${files.join(", ")})` });
+  if (errors.length) return { ok: false, errors };
+  return { ok: true, args: { file: files[0], ...(freqs ? { freqs } : {}), ...(points !== undefined ? { points } : {}) } };
+}
+
+/** `10,100,1e3` or `1k, 10k, 1.5 MHz` → hertz; every item a positive frequency. */
+export function parseFreqList(text: string): { ok: true; freqs: number[] } | { ok: false; error: string } {
+  const items = text.split(",").map((s) => s.trim());
+  if (items.length > MAX_FREQS) return { ok: false, error: `lists ${items.length} frequencies; at most ${MAX_FREQS}` };
+  const freqs: number[] = [];
+  for (const [i, item] of items.entries()) {
+    if (item === "") return { ok: false, error: `item ${i + 1} is empty; separate frequencies with single commas` };
+    const r = parseQuantity(item, { unit: "hertz" });
+    if (!r.ok) return { ok: false, error: `item ${i + 1}: ${r.error}` };
+    if (!meetsRule(r.value, FREQ_RULE)) return { ok: false, error: `item ${i + 1} (${item}) ${numberMessage(FREQ_RULE, r.value)}` };
+    freqs.push(r.value);
+  }
+  return { ok: true, freqs };
+}
