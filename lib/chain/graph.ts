@@ -125,7 +125,7 @@ function checkPartRefs(parts: unknown, nodes: unknown[], out: RawIssue[]): void 
   const keys = isPlainObject(parts) ? Object.keys(parts) : null;
   if (parts !== undefined && keys === null) return; // parts itself is wrong; that is reported on its own
   nodes.forEach((n, i) => {
-    if (!isPlainObject(n) || !(OPAMP_KINDS as readonly unknown[]).includes(n.kind)) return;
+    if (!isPlainObject(n) || !isOpAmpKind(n.kind)) return;
     const part = n.part;
     if (typeof part !== "string") return;
     if (keys && Object.prototype.hasOwnProperty.call(parts, part)) return;
