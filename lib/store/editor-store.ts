@@ -62,8 +62,15 @@ export interface EditorState {
 
 export interface EditorActions {
   commit(next: DraftDoc, opts?: { coalesceKey?: string; select?: string[] }): void;
-  addNode(kind: NodeKind, position?: Position): string | null;
+  /**
+   * Place a node. With `after`, it goes right of that node and is connected from it when the graph
+   * rules allow (the keyboard way of building a chain: select, add, add, add).
+   */
+  addNode(kind: NodeKind, position?: Position, opts?: { after?: string }): string | null;
   connect(from: string, to: string): ConnectionCheck;
+  /** connect the two selected nodes, the left one feeding the right one */
+  connectSelected(): ConnectionCheck;
+  selectAll(): void;
   removeEdge(from: string, to: string): void;
   deleteSelection(): void;
   duplicateSelection(): void;
@@ -157,9 +164,10 @@ export function createEditorStore(init: EditorInit): EditorStore {
 
     const actions: EditorActions = {
       commit,
-      addNode(kind, position) {
+      addNode(kind, position, opts = {}) {
         if (!writable()) return null;
         const { doc, lastRails } = get();
+        const after = opts.after ? doc.nodes.find((n) => n.id === opts.after) : undefined;
         if (kind === "source" && doc.nodes.some((n) => n.kind === "source")) {
           set({ notice: "This chain already has its source; a chain has exactly one." });
           return null;
@@ -170,14 +178,16 @@ export function createEditorStore(init: EditorInit): EditorStore {
           id,
           kind,
           params: { ...spec.starter },
-          position: position ?? freeSpot(doc),
+          position: position ?? (after ? spotAfter(doc, after) : freeSpot(doc)),
         };
         if (isOpAmpKind(kind)) {
           node.part = null;
           const rails = lastRails ?? lastUsedRails(doc);
           if (rails) node.rails = { ...rails };
         }
-        commit({ ...doc, nodes: [...doc.nodes, node] }, { select: [id] });
+        let next: DraftDoc = { ...doc, nodes: [...doc.nodes, node] };
+        if (after && checkConnection(next, after.id, id).ok) next = { ...next, edges: [...next.edges, { from: after.id, to: id }] };
+        commit(next, { select: [id] });
         return id;
       },
       connect(from, to) {
@@ -190,6 +200,23 @@ export function createEditorStore(init: EditorInit): EditorStore {
         }
         commit({ ...doc, edges: [...doc.edges, { from, to }] });
         return check;
+      },
+      connectSelected() {
+        const { doc, selected } = get();
+        if (selected.length !== 2) {
+          const reason = "Select exactly two nodes to connect them.";
+          set({ notice: reason });
+          return { ok: false, reason };
+        }
+        const [a, b] = selected.map((id) => doc.nodes.find((n) => n.id === id)!);
+        const ax = a.position?.x ?? 0;
+        const bx = b.position?.x ?? 0;
+        const [from, to] = ax <= bx ? [a, b] : [b, a];
+        return actions.connect(from.id, to.id);
+      },
+      selectAll() {
+        const { doc } = get();
+        set({ selected: doc.nodes.map((n) => n.id), selectedEdges: [] });
       },
       removeEdge(from, to) {
         const { doc } = get();
@@ -413,6 +440,15 @@ function freeSpot(doc: DraftDoc): Position {
     }
   }
   return { x: maxX + 260, y: yAtMax };
+}
+
+/** Right of `after`; further down while that spot is taken (a fork's second branch). */
+function spotAfter(doc: DraftDoc, after: DraftNode): Position {
+  const base = after.position ?? { x: 0, y: 0 };
+  const spot = { x: base.x + 260, y: base.y };
+  const taken = (p: Position) => doc.nodes.some((n) => n.position && Math.abs(n.position.x - p.x) < 200 && Math.abs(n.position.y - p.y) < 150);
+  while (taken(spot)) spot.y += 190;
+  return spot;
 }
 
 function writeClip(clip: Clip) {

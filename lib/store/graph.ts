@@ -47,7 +47,7 @@ function adjacency(edges: Edge[]): Map<string, string[]> {
 }
 
 /** Node ids from the source to `nodeId` along the (unique) incoming edges; [] when not connected to a source. */
-export function pathTo(doc: Pick<DraftDoc, "nodes" | "edges">, nodeId: string): string[] {
+export function pathTo(doc: { nodes: readonly { id: string; kind: string }[]; edges: readonly Edge[] }, nodeId: string): string[] {
   const incoming = new Map(doc.edges.map((e) => [e.to, e.from]));
   const path = [nodeId];
   const seen = new Set(path);

@@ -185,3 +185,34 @@ describe("createEditorStore: read-only", () => {
     expect(s.getState().save).toBe("saved");
   });
 });
+
+describe("createEditorStore: adding after a node", () => {
+  it("places the new node right of the given one and connects it when the rules allow", () => {
+    const s = fresh();
+    const a = s.getState().actions;
+    a.addNode("source", { x: 0, y: 0 });
+    const u1 = a.addNode("lossyIntegrator", undefined, { after: "src" })!;
+    const rc = a.addNode("rcLowpass", undefined, { after: u1 })!;
+    const adc = a.addNode("adc", undefined, { after: rc })!;
+    expect(s.getState().doc.edges).toEqual([
+      { from: "src", to: u1 },
+      { from: u1, to: rc },
+      { from: rc, to: adc },
+    ]);
+    expect(s.getState().doc.nodes.find((n) => n.id === u1)!.position).toEqual({ x: 260, y: 0 });
+    // Nothing follows an ADC: the next node is placed but left unconnected.
+    const loose = a.addNode("inverting", undefined, { after: adc })!;
+    expect(s.getState().doc.edges.some((e) => e.to === loose)).toBe(false);
+  });
+
+  it("puts a second branch below the first", () => {
+    const s = fresh();
+    const a = s.getState().actions;
+    a.addNode("source", { x: 0, y: 0 });
+    a.addNode("adc", undefined, { after: "src" });
+    const second = a.addNode("inverting", undefined, { after: "src" })!;
+    expect(s.getState().doc.nodes.find((n) => n.id === second)!.position).toEqual({ x: 260, y: 190 });
+    // the source feeds both (fan-out)
+    expect(s.getState().doc.edges.filter((e) => e.from === "src")).toHaveLength(2);
+  });
+});

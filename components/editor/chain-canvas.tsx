@@ -1,0 +1,163 @@
+"use client";
+/**
+ * The canvas: the draft's nodes as cards, connections checked against the format's graph rules as they
+ * are drawn, cards dropped from the shelf. The draft in the store is the only truth; React Flow's node
+ * list is derived from it (plus the measured card sizes React Flow reports), and every change the canvas
+ * makes goes back through store actions, so undo, autosave and analysis see it.
+ */
+import { useCallback, useMemo, useRef, useState } from "react";
+import {
+  Background,
+  BackgroundVariant,
+  Controls,
+  ReactFlow,
+  useReactFlow,
+  type Connection,
+  type EdgeChange,
+  type IsValidConnection,
+  type NodeChange,
+} from "@xyflow/react";
+import "@xyflow/react/dist/style.css";
+import type { NodeKind, Position as XY } from "@/lib/chain/types";
+import { NODE_KINDS } from "@/lib/chain/types";
+import { useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/editor-context";
+import { edgeKey } from "@/lib/store/editor-store";
+import { checkConnection } from "@/lib/store/graph";
+import type { DraftNode } from "@/lib/store/draft";
+import { nodeTypes } from "./stage-card";
+import { SHELF_DRAG_TYPE, toFlowNode, type ChainFlowEdge, type StageFlowNode } from "./flow-types";
+
+
+
+type Measured = { width: number; height: number };
+
+export function ChainCanvas() {
+  const docNodes = useEditor((s) => s.doc.nodes);
+  const docEdges = useEditor((s) => s.doc.edges);
+  const selected = useEditor((s) => s.selected);
+  const selectedEdges = useEditor((s) => s.selectedEdges);
+  const readOnly = useEditor((s) => s.readOnly);
+  const store = useEditorStoreApi();
+  const actions = useEditorActions();
+  const rf = useReactFlow();
+
+  const measured = useRef(new Map<string, Measured>());
+  const [measureTick, setMeasureTick] = useState(0);
+  const uiCache = useRef(new Map<string, { src: StageFlowNode; sel: boolean; m: Measured | undefined; out: StageFlowNode }>());
+
+  const nodes = useMemo(() => {
+    void measureTick;
+    const sel = new Set(selected);
+    return docNodes.map((d: DraftNode) => {
+      const src = toFlowNode(d);
+      const m = measured.current.get(d.id);
+      const isSel = sel.has(d.id);
+      const hit = uiCache.current.get(d.id);
+      if (hit && hit.src === src && hit.sel === isSel && hit.m === m) return hit.out;
+      const out = { ...src, selected: isSel, ...(m ? { measured: m } : {}), deletable: false } as StageFlowNode;
+      uiCache.current.set(d.id, { src, sel: isSel, m, out });
+      return out;
+    });
+  }, [docNodes, selected, measureTick]);
+
+  const edges = useMemo<ChainFlowEdge[]>(() => {
+    const sel = new Set(selectedEdges);
+    return docEdges.map((e) => {
+      const id = edgeKey(e.from, e.to);
+      return { id, source: e.from, target: e.to, selected: sel.has(id), deletable: false };
+    });
+  }, [docEdges, selectedEdges]);
+
+  const onNodesChange = useCallback(
+    (changes: NodeChange<StageFlowNode>[]) => {
+      let dims = false;
+      const moves: Record<string, XY> = {};
+      let final = false;
+      let sel: Set<string> | null = null;
+      for (const c of changes) {
+        if (c.type === "dimensions" && c.dimensions) {
+          const prev = measured.current.get(c.id);
+          if (!prev || prev.width !== c.dimensions.width || prev.height !== c.dimensions.height) {
+            measured.current.set(c.id, { width: c.dimensions.width, height: c.dimensions.height });
+            dims = true;
+          }
+        } else if (c.type === "position" && c.position) {
+          moves[c.id] = { x: Math.round(c.position.x), y: Math.round(c.position.y) };
+          if (!c.dragging) final = true;
+        } else if (c.type === "position" && c.dragging === false) {
+          final = true;
+        } else if (c.type === "select") {
+          sel ??= new Set(store.getState().selected);
+          if (c.selected) sel.add(c.id);
+          else sel.delete(c.id);
+        }
+      }
+      if (dims) setMeasureTick((t) => t + 1);
+      if (Object.keys(moves).length) actions.moveNodes(moves, final);
+      else if (final) actions.moveNodes({}, true);
+      if (sel) actions.select([...sel], sel.size ? [] : store.getState().selectedEdges);
+    },
+    [actions, store],
+  );
+
+  const onEdgesChange = useCallback(
+    (changes: EdgeChange<ChainFlowEdge>[]) => {
+      let sel: Set<string> | null = null;
+      for (const c of changes) {
+        if (c.type === "select") {
+          sel ??= new Set(store.getState().selectedEdges);
+          if (c.selected) sel.add(c.id);
+          else sel.delete(c.id);
+        }
+      }
+      if (sel) actions.select(sel.size ? [] : store.getState().selected, [...sel]);
+    },
+    [actions, store],
+  );
+
+  const onConnect = useCallback((c: Connection) => void actions.connect(c.source, c.target), [actions]);
+  const isValidConnection = useCallback<IsValidConnection<ChainFlowEdge>>(
+    (c) => checkConnection(store.getState().doc, c.source, c.target).ok,
+    [store],
+  );
+
+  const onDrop = useCallback(
+    (e: React.DragEvent) => {
+      const kind = e.dataTransfer.getData(SHELF_DRAG_TYPE) as NodeKind;
+      if (!NODE_KINDS.includes(kind)) return;
+      e.preventDefault();
+      const p = rf.screenToFlowPosition({ x: e.clientX, y: e.clientY });
+      actions.addNode(kind, { x: Math.round(p.x - 107), y: Math.round(p.y - 40) });
+    },
+    [actions, rf],
+  );
+
+  return (
+    <div className="h-full w-full" data-testid="canvas" onDragOver={(e) => { if (e.dataTransfer.types.includes(SHELF_DRAG_TYPE)) { e.preventDefault(); e.dataTransfer.dropEffect = "copy"; } }} onDrop={onDrop}>
+      <ReactFlow<StageFlowNode, ChainFlowEdge>
+        nodes={nodes}
+        edges={edges}
+        nodeTypes={nodeTypes}
+        onNodesChange={onNodesChange}
+        onEdgesChange={onEdgesChange}
+        onConnect={onConnect}
+        isValidConnection={isValidConnection}
+        nodesDraggable={!readOnly}
+        nodesConnectable={!readOnly}
+        elementsSelectable
+        deleteKeyCode={null}
+        selectionKeyCode="Shift"
+        multiSelectionKeyCode={["Shift", "Meta", "Control"]}
+        defaultEdgeOptions={{ type: "smoothstep" }}
+        fitView
+        fitViewOptions={{ maxZoom: 1, padding: 0.12 }}
+        minZoom={0.2}
+        maxZoom={2}
+        aria-label="Chain canvas"
+      >
+        <Background variant={BackgroundVariant.Dots} gap={20} size={1} color="#d6d2c8" />
+        <Controls showInteractive={false} position="bottom-left" />
+      </ReactFlow>
+    </div>
+  );
+}

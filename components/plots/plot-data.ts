@@ -1,0 +1,199 @@
+/**
+ * What the response plot draws, computed apart from the drawing: the series along the path to the chosen
+ * node (each stage's cascade up to it, or each stage on its own), the markers (corners, source band,
+ * Nyquist, alias frequency), the Plotly figure, and the CSV of exactly what is plotted.
+ */
+import Papa from "papaparse";
+import type { StageResult } from "@/lib/chain/types";
+import type { LiveCurves } from "@/lib/store/live-analysis";
+import type { PlotMode } from "@/lib/store/editor-store";
+import { formatQuantity } from "@/lib/units";
+
+export interface PlotSeries {
+  id: string;
+  name: string;
+  db: Float64Array;
+  ph: Float64Array;
+  /** the chosen node's own trace */
+  emphasis: boolean;
+}
+
+export type MarkerKind = "corner" | "band" | "nyquist" | "alias";
+
+export interface Marker {
+  kind: MarkerKind;
+  /** Hz; for the band its low edge */
+  f: number;
+  /** Hz; the band's high edge */
+  f2?: number;
+  label: string;
+}
+
+export interface PlotInput {
+  curves: LiveCurves;
+  /** node ids from the source to the chosen node */
+  path: string[];
+  mode: PlotMode;
+  names: Record<string, string>;
+  stages: Record<string, StageResult>;
+  band: { fLow: number; fHigh: number } | null;
+  /** sample rate of the ADC that ends the path, when it does */
+  sampleRate: number | null;
+}
+
+/** Series along the path, source left out; in "individual" mode the ADC (a flat 1) is left out too. */
+export function plotSeries(input: PlotInput): PlotSeries[] {
+  const { curves, path, mode } = input;
+  const target = path[path.length - 1];
+  const out: PlotSeries[] = [];
+  for (const id of path.slice(1)) {
+    const i = curves.index[id];
+    if (i === undefined) continue;
+    const stage = input.stages[id];
+    if (mode === "individual" && !stage) continue;
+    out.push({
+      id,
+      name: input.names[id] ?? id,
+      db: mode === "cumulative" ? curves.cumDb[i] : curves.indDb[i],
+      ph: mode === "cumulative" ? curves.cumPh[i] : curves.indPh[i],
+      emphasis: id === target,
+    });
+  }
+  return out;
+}
+
+export function plotMarkers(input: PlotInput): Marker[] {
+  const f = input.curves.f;
+  const lo = f[0];
+  const hi = f[f.length - 1];
+  const inRange = (x: number) => Number.isFinite(x) && x >= lo && x <= hi;
+  const out: Marker[] = [];
+  if (input.band) {
+    const a = Math.max(input.band.fLow, lo);
+    const b = Math.min(input.band.fHigh, hi);
+    if (b > a) out.push({ kind: "band", f: a, f2: b, label: "source band" });
+  }
+  for (const id of input.path) {
+    const s = input.stages[id];
+    if (s?.f0 != null && inRange(s.f0)) out.push({ kind: "corner", f: s.f0, label: `${id} ${s.q === null ? "fc" : "f0"}` });
+  }
+  if (input.sampleRate) {
+    const ny = input.sampleRate / 2;
+    if (inRange(ny)) out.push({ kind: "nyquist", f: ny, label: "Nyquist" });
+    if (input.band) {
+      const alias = input.sampleRate - input.band.fHigh;
+      if (alias > 0 && inRange(alias)) out.push({ kind: "alias", f: alias, label: "alias" });
+    }
+  }
+  return out;
+}
+
+/** Plain arrays with gaps (null) where a value is not finite and where the wrapped phase jumps a turn. */
+export function withGaps(values: Float64Array, wrap: boolean): (number | null)[] {
+  const out: (number | null)[] = new Array(values.length);
+  let prev: number | null = null;
+  for (let k = 0; k < values.length; k++) {
+    const v = values[k];
+    if (!Number.isFinite(v)) {
+      out[k] = null;
+      prev = null;
+      continue;
+    }
+    out[k] = wrap && prev !== null && Math.abs(v - prev) > 180 ? null : v;
+    prev = v;
+  }
+  return out;
+}
+
+/** Our own palette: the chosen node in the accent, the rest in muted tones that print apart. */
+export const SERIES_COLOURS = ["#3f5d85", "#946019", "#6b4a7a", "#5f6b2e", "#5a5f67", "#2f7d8c", "#8a5a44"];
+export const ACCENT = "#1e6d6a";
+
+export interface Figure {
+  data: Record<string, unknown>[];
+  layout: Record<string, unknown>;
+}
+
+export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64Array): Figure {
+  const x = Array.from(f);
+  const data: Record<string, unknown>[] = [];
+  series.forEach((s, i) => {
+    const colour = s.emphasis ? ACCENT : SERIES_COLOURS[i % SERIES_COLOURS.length];
+    const line = { color: colour, width: s.emphasis ? 2.4 : 1.2 };
+    data.push({ type: "scatter", mode: "lines", name: s.name, legendgroup: s.id, x, y: withGaps(s.db, false), xaxis: "x", yaxis: "y", line, hoverinfo: "none" });
+    data.push({ type: "scatter", mode: "lines", name: s.name, legendgroup: s.id, showlegend: false, x, y: withGaps(s.ph, true), xaxis: "x", yaxis: "y2", line, hoverinfo: "none" });
+  });
+  const shapes: Record<string, unknown>[] = [];
+  const annotations: Record<string, unknown>[] = [];
+  for (const m of markers) {
+    if (m.kind === "band") {
+      shapes.push({ type: "rect", xref: "x", yref: "paper", x0: m.f, x1: m.f2, y0: 0, y1: 1, fillcolor: "#cfe3e1", opacity: 0.35, line: { width: 0 }, layer: "below" });
+      continue;
+    }
+    const dash = m.kind === "corner" ? "dot" : m.kind === "nyquist" ? "dash" : "dashdot";
+    const colour = m.kind === "corner" ? "#7b8088" : m.kind === "nyquist" ? "#24272c" : "#946019";
+    shapes.push({ type: "line", xref: "x", yref: "paper", x0: m.f, x1: m.f, y0: 0, y1: 1, line: { color: colour, width: 1, dash } });
+    annotations.push({ x: Math.log10(m.f), xref: "x", y: 1, yref: "paper", yanchor: "bottom", text: m.label, showarrow: false, font: { size: 10, color: colour }, textangle: 0 });
+  }
+  let top = -Infinity;
+  let bottom = Infinity;
+  for (const s of series) {
+    for (const v of s.db) {
+      if (!Number.isFinite(v)) continue;
+      if (v > top) top = v;
+      if (v < bottom) bottom = v;
+    }
+  }
+  const yRange = Number.isFinite(top) ? [Math.max(bottom, top - 140) - 5, top + 5] : undefined;
+  const layout = {
+    margin: { l: 52, r: 14, t: 24, b: 38 },
+    paper_bgcolor: "#fbfaf7",
+    plot_bgcolor: "#fbfaf7",
+    font: { family: "var(--font-geist-sans), system-ui, sans-serif", size: 11, color: "#3c4047" },
+    showlegend: series.length > 1,
+    legend: { orientation: "h", x: 0, y: 1.08, xanchor: "left", yanchor: "bottom", font: { size: 10.5 } },
+    hovermode: "x",
+    dragmode: "zoom",
+    xaxis: {
+      type: "log",
+      anchor: "y2",
+      title: { text: "frequency (Hz)", standoff: 4 },
+      gridcolor: "#e3dfd6",
+      zeroline: false,
+      showspikes: true,
+      spikemode: "across",
+      spikethickness: 1,
+      spikecolor: "#5a5f67",
+      spikedash: "solid",
+      exponentformat: "SI",
+    },
+    yaxis: { domain: [0.53, 1], title: { text: "magnitude (dB)" }, gridcolor: "#e3dfd6", zerolinecolor: "#a1a5ab", range: yRange },
+    yaxis2: { domain: [0, 0.45], title: { text: "phase (°)" }, gridcolor: "#e3dfd6", zerolinecolor: "#a1a5ab", range: [-185, 185], tickvals: [-180, -90, 0, 90, 180] },
+    shapes,
+    annotations,
+    uirevision: "keep-zoom",
+  };
+  return { data, layout };
+}
+
+/** CSV of what is plotted: frequency, then magnitude and phase per series. */
+export function plotCsv(series: PlotSeries[], f: Float64Array, mode: PlotMode): string {
+  const what = mode === "cumulative" ? "from source" : "own";
+  const fields = ["frequency_Hz", ...series.flatMap((s) => [`${s.id} ${what} magnitude_dB`, `${s.id} ${what} phase_deg`])];
+  const rows: (number | string)[][] = [];
+  for (let k = 0; k < f.length; k++) {
+    const row: (number | string)[] = [f[k]];
+    for (const s of series) row.push(Number.isFinite(s.db[k]) ? s.db[k] : "", Number.isFinite(s.ph[k]) ? s.ph[k] : "");
+    rows.push(row);
+  }
+  return Papa.unparse({ fields, data: rows });
+}
+
+/** One line of readout at frequency index k: "1.23 kHz · u2 −3.01 dB −45.0°". */
+export function readoutAt(series: PlotSeries[], f: Float64Array, k: number): { f: string; items: { id: string; name: string; db: string; ph: string }[] } {
+  const n = (v: number, d: number) => (Number.isFinite(v) ? v.toFixed(d).replace("-", "−") : "—");
+  return {
+    f: formatQuantity(f[k], "hertz", 4),
+    items: series.map((s) => ({ id: s.id, name: s.name, db: `${n(s.db[k], 2)} dB`, ph: `${n(s.ph[k], 1)}°` })),
+  };
+}

@@ -1,0 +1,186 @@
+"use client";
+/**
+ * The response plot: magnitude over phase, one shared log-frequency axis, the cascade along the path to
+ * the chosen node (each stage's cascade up to it, or each stage on its own), with markers at corners, the
+ * source band, Nyquist and the alias frequency, a readout at the cursor and CSV export of what is drawn.
+ */
+import { useEffect, useMemo, useRef, useState } from "react";
+import { useEditor, useEditorActions } from "@/lib/store/editor-context";
+import type { PlotMode } from "@/lib/store/editor-store";
+import { pathTo } from "@/lib/store/graph";
+import { buildFigure, plotCsv, plotMarkers, plotSeries, readoutAt, type PlotInput } from "./plot-data";
+import { loadPlotly, type PlotlyLike } from "./plotly-loader";
+
+/** The node the plot follows: the selected node when it is analysed, else the chosen path's end. */
+function useTarget(): { target: string | null; following: "selection" | "path" } {
+  const selected = useEditor((s) => (s.selected.length === 1 ? s.selected[0] : null));
+  const live = useEditor((s) => s.live);
+  const pathEnd = useEditor((s) => s.plotPathEnd);
+  if (live?.curves && selected && live.curves.index[selected] !== undefined && live.doc.nodes.find((n) => n.id === selected)?.kind !== "source") {
+    return { target: selected, following: "selection" };
+  }
+  const ends = live?.paths.map((p) => p[p.length - 1]) ?? [];
+  return { target: pathEnd && ends.includes(pathEnd) ? pathEnd : (ends[0] ?? null), following: "path" };
+}
+
+export function ResponsePlot() {
+  const live = useEditor((s) => s.live);
+  const mode = useEditor((s) => s.plotMode);
+  const name = useEditor((s) => s.doc.name);
+  const pathEnd = useEditor((s) => s.plotPathEnd);
+  const actions = useEditorActions();
+  const { target, following } = useTarget();
+  const el = useRef<HTMLDivElement>(null);
+  const plotly = useRef<PlotlyLike | null>(null);
+  const [ready, setReady] = useState(false);
+  const [loadError, setLoadError] = useState<string | null>(null);
+  const [hoverK, setHoverK] = useState<number | null>(null);
+
+  const input = useMemo<PlotInput | null>(() => {
+    if (!live?.curves || !live.chain || !target) return null;
+    const chain = live.chain;
+    const path = pathTo(chain, target);
+    if (path.length < 2) return null;
+    const names: Record<string, string> = {};
+    for (const n of chain.nodes) names[n.id] = n.label ? `${n.id} ${n.label}` : n.id;
+    const src = chain.nodes.find((n) => n.kind === "source");
+    const end = chain.nodes.find((n) => n.id === target);
+    return {
+      curves: live.curves,
+      path,
+      mode,
+      names,
+      stages: live.stageById,
+      band: src?.kind === "source" ? { fLow: src.params.fLow, fHigh: src.params.fHigh } : null,
+      sampleRate: end?.kind === "adc" ? end.params.sampleRate : null,
+    };
+  }, [live, target, mode]);
+
+  const series = useMemo(() => (input ? plotSeries(input) : []), [input]);
+  const markers = useMemo(() => (input ? plotMarkers(input) : []), [input]);
+
+  useEffect(() => {
+    let gone = false;
+    loadPlotly().then(
+      (p) => {
+        if (gone) return;
+        plotly.current = p;
+        setReady(true);
+      },
+      (e: unknown) => setLoadError(e instanceof Error ? e.message : String(e)),
+    );
+    const node = el.current;
+    return () => {
+      gone = true;
+      if (node && plotly.current) plotly.current.purge(node);
+    };
+  }, []);
+
+  useEffect(() => {
+    const node = el.current;
+    const p = plotly.current;
+    if (!ready || !node || !p || !input) return;
+    const fig = buildFigure(series, markers, input.curves.f);
+    const rev = live?.doc;
+    void p.react(node, fig.data, fig.layout, { displaylogo: false, responsive: true, modeBarButtonsToRemove: ["select2d", "lasso2d", "toImage"] }).then(() => {
+      // One mark per drawn revision, for the browser benchmark (edit → plot drawn).
+      performance.mark("cw:plot-drawn", { detail: { at: performance.now(), doc: rev ? 1 : 0 } });
+      (window as unknown as { __cwPlotRev?: unknown }).__cwPlotRev = rev;
+    });
+  }, [ready, input, series, markers, live?.doc]);
+
+  useEffect(() => {
+    const node = el.current as (HTMLDivElement & { on?: (ev: string, fn: (d: { points?: { pointIndex?: number; pointNumber?: number }[] }) => void) => void }) | null;
+    if (!ready || !node?.on) return;
+    node.on("plotly_hover", (d) => {
+      const pt = d.points?.[0];
+      const k = pt?.pointIndex ?? pt?.pointNumber;
+      if (typeof k === "number") setHoverK(k);
+    });
+    node.on("plotly_unhover", () => setHoverK(null));
+  }, [ready, input !== null]); // eslint-disable-line react-hooks/exhaustive-deps
+
+  const paths = live?.paths ?? [];
+  const readout = input && hoverK !== null && hoverK < input.curves.f.length ? readoutAt(series, input.curves.f, hoverK) : null;
+
+  const exportCsv = () => {
+    if (!input) return;
+    const blob = new Blob([plotCsv(series, input.curves.f, mode)], { type: "text/csv" });
+    const a = document.createElement("a");
+    a.href = URL.createObjectURL(blob);
+    a.download = `${name.replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "") || "chain"}-response-${target}.csv`;
+    document.body.appendChild(a);
+    a.click();
+    a.remove();
+    setTimeout(() => URL.revokeObjectURL(a.href), 1000);
+  };
+
+  return (
+    <section className="flex h-full min-h-0 flex-col" aria-label="Response" data-testid="response-plot">
+      <div className="flex flex-wrap items-center gap-x-3 gap-y-1 border-b border-paper-rule px-3 py-1.5 text-[12px]">
+        <div role="radiogroup" aria-label="Curves" className="flex overflow-hidden rounded-card border border-paper-rule">
+          {(["cumulative", "individual"] as PlotMode[]).map((m) => (
+            <button
+              key={m}
+              type="button"
+              role="radio"
+              aria-checked={mode === m}
+              onClick={() => actions.setPlotMode(m)}
+              className={`px-2 py-0.5 ${mode === m ? "bg-accent-700 text-white" : "bg-paper-raised text-graphite-700 hover:bg-paper-sunk"}`}
+            >
+              {m === "cumulative" ? "Cascade" : "Each stage"}
+            </button>
+          ))}
+        </div>
+        {following === "selection" ? (
+          <span className="text-graphite-500">
+            up to <span className="num text-graphite-900">{target}</span> (selected)
+          </span>
+        ) : paths.length > 1 ? (
+          <label className="flex items-center gap-1 text-graphite-500">
+            path to
+            <select
+              value={pathEnd ?? target ?? ""}
+              onChange={(e) => actions.setPlotPathEnd(e.target.value)}
+              className="num rounded-card border border-paper-rule bg-paper-raised px-1 py-0.5 text-graphite-900"
+              aria-label="Path to plot"
+            >
+              {paths.map((p) => {
+                const end = p[p.length - 1];
+                return (
+                  <option key={end} value={end}>
+                    {end}
+                  </option>
+                );
+              })}
+            </select>
+          </label>
+        ) : target ? (
+          <span className="text-graphite-500">
+            path to <span className="num text-graphite-900">{target}</span>
+          </span>
+        ) : null}
+        <span className="num min-w-0 flex-1 truncate text-graphite-700" aria-live="off" data-testid="plot-readout">
+          {readout ? `${readout.f}: ${readout.items.map((r) => `${r.id} ${r.db} ${r.ph}`).join(" · ")}` : "point at the plot for values"}
+        </span>
+        <button type="button" onClick={exportCsv} disabled={!input} className="rounded-card border border-paper-rule bg-paper-raised px-2 py-0.5 text-graphite-900 hover:bg-paper-sunk disabled:opacity-50">
+          Export CSV
+        </button>
+      </div>
+      <div className="relative min-h-0 flex-1">
+        <div ref={el} className="absolute inset-0" data-testid="plot-area" data-ready={ready && input ? "1" : "0"} />
+        {(!input || !ready) && (
+          <p className="absolute inset-0 flex items-center justify-center p-4 text-center text-[13px] text-graphite-500">
+            {loadError
+              ? `The plot could not load (${loadError}).`
+              : !input
+                ? live?.issues[0]
+                  ? `Nothing to plot yet: ${live.issues[0].message}.`
+                  : "Nothing to plot yet: place a source and connect a stage to it."
+                : "Loading the plot…"}
+          </p>
+        )}
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,104 @@
+import { describe, expect, it } from "vitest";
+import Papa from "papaparse";
+import { buildFigure, plotCsv, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
+import type { LiveCurves } from "@/lib/store/live-analysis";
+import type { StageResult } from "@/lib/chain/types";
+
+// A hand-made grid: 1 Hz, 10 Hz, 100 Hz, 1 kHz, 10 kHz. u1 is a first-order low-pass with fc = 100 Hz
+// (|H| = 1/√(1+(f/fc)²), phase −atan(f/fc); derived from the first-order formula), the ADC passes it on.
+const f = Float64Array.from([1, 10, 100, 1000, 10000]);
+const lpDb = Float64Array.from(f, (x) => -10 * Math.log10(1 + (x / 100) ** 2));
+const lpPh = Float64Array.from(f, (x) => (-Math.atan(x / 100) * 180) / Math.PI);
+const curves: LiveCurves = {
+  f,
+  index: { src: 0, u1: 1, adc: 2 },
+  cumDb: [new Float64Array(5), lpDb, lpDb],
+  cumPh: [new Float64Array(5), lpPh, lpPh],
+  indDb: [new Float64Array(5), lpDb, new Float64Array(5)],
+  indPh: [new Float64Array(5), lpPh, new Float64Array(5)],
+};
+const u1 = { id: "u1", kind: "lossyIntegrator", dcGain: -1, f0: 100, q: null, dcOut: null, acPeak: null, peakOut: null } as StageResult;
+
+function input(over: Partial<PlotInput> = {}): PlotInput {
+  return {
+    curves,
+    path: ["src", "u1", "adc"],
+    mode: "cumulative",
+    names: { u1: "u1 Low-pass", adc: "adc" },
+    stages: { u1 },
+    band: { fLow: 0, fHigh: 200 },
+    sampleRate: 2000,
+    ...over,
+  };
+}
+
+describe("plotSeries", () => {
+  it("draws the cascade to every node after the source, the chosen node emphasised", () => {
+    const s = plotSeries(input());
+    expect(s.map((x) => x.id)).toEqual(["u1", "adc"]);
+    expect(s.map((x) => x.emphasis)).toEqual([false, true]);
+    expect(s[0].db[2]).toBeCloseTo(-3.0103, 4); // −3.01 dB at the corner (first-order formula)
+  });
+
+  it("draws each stage on its own in the other mode, leaving out the converter's flat unity", () => {
+    const s = plotSeries(input({ mode: "individual" }));
+    expect(s.map((x) => x.id)).toEqual(["u1"]);
+    expect(s[0].ph[2]).toBeCloseTo(-45, 9);
+  });
+});
+
+describe("plotMarkers", () => {
+  it("marks the source band, the corner, Nyquist and the alias frequency", () => {
+    const m = plotMarkers(input());
+    expect(m).toContainEqual({ kind: "band", f: 1, f2: 200, label: "source band" }); // fLow 0 clipped to the grid start
+    expect(m).toContainEqual({ kind: "corner", f: 100, label: "u1 fc" });
+    expect(m).toContainEqual({ kind: "nyquist", f: 1000, label: "Nyquist" }); // sampleRate / 2
+    expect(m).toContainEqual({ kind: "alias", f: 1800, label: "alias" }); // sampleRate − fHigh
+  });
+
+  it("leaves out markers outside the plotted range and converter markers on a path without one", () => {
+    const m = plotMarkers(input({ sampleRate: null, stages: { u1: { ...u1, f0: 1e6 } } }));
+    expect(m.map((x) => x.kind)).toEqual(["band"]);
+  });
+});
+
+describe("withGaps", () => {
+  it("breaks a wrapped phase where it jumps a full turn, and at values that are not finite", () => {
+    expect(withGaps(Float64Array.from([-170, -179, 179, 170]), true)).toEqual([-170, -179, null, 170]);
+    expect(withGaps(Float64Array.from([1, NaN, 3]), false)).toEqual([1, null, 3]);
+  });
+});
+
+describe("buildFigure", () => {
+  it("puts magnitude over phase on one log-frequency axis, a line per marker", () => {
+    const s = plotSeries(input());
+    const fig = buildFigure(s, plotMarkers(input()), f);
+    expect(fig.data).toHaveLength(4);
+    expect(fig.data.map((d) => d.yaxis)).toEqual(["y", "y2", "y", "y2"]);
+    expect(new Set(fig.data.map((d) => d.xaxis))).toEqual(new Set(["x"]));
+    const layout = fig.layout as { xaxis: { type: string }; shapes: unknown[]; yaxis: { domain: number[] }; yaxis2: { domain: number[] } };
+    expect(layout.xaxis.type).toBe("log");
+    expect(layout.yaxis.domain[0]).toBeGreaterThan(layout.yaxis2.domain[1]);
+    expect(layout.shapes).toHaveLength(4);
+  });
+});
+
+describe("plotCsv", () => {
+  it("writes the frequency and each plotted series' magnitude and phase", () => {
+    const s = plotSeries(input());
+    const parsed = Papa.parse<string[]>(plotCsv(s, f, "cumulative"), { skipEmptyLines: true }).data;
+    expect(parsed[0]).toEqual(["frequency_Hz", "u1 from source magnitude_dB", "u1 from source phase_deg", "adc from source magnitude_dB", "adc from source phase_deg"]);
+    expect(parsed).toHaveLength(6);
+    expect(Number(parsed[3][0])).toBe(100);
+    expect(Number(parsed[3][1])).toBeCloseTo(-3.0103, 4);
+    expect(Number(parsed[3][2])).toBeCloseTo(-45, 9);
+  });
+});
+
+describe("readoutAt", () => {
+  it("reads every series at the cursor's frequency", () => {
+    const r = readoutAt(plotSeries(input()), f, 2);
+    expect(r.f).toBe("100.0 Hz");
+    expect(r.items[0]).toEqual({ id: "u1", name: "u1 Low-pass", db: "−3.01 dB", ph: "−45.0°" });
+  });
+});
