@@ -10,7 +10,7 @@ import * as schema from "./schema";
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
 
 /** Where the generated SQL migrations live (resolved from the working directory, as `next start` runs there). */
-export const MIGRATIONS_DIR = path.resolve(process.cwd(), "drizzle");
+export const MIGRATIONS_DIR = path.join(process.cwd(), "drizzle");
 
 /**
  * Open a SQLite file with the settings every connection needs: WAL so readers do not block the

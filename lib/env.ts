@@ -56,7 +56,7 @@ export class EnvError extends Error {
  * survive restarts without anyone having to invent a secret to try the app.
  */
 function devSecret(dataDir: string): string {
-  const file = path.join(dataDir, ".dev-secret");
+  const file = path.join(/*turbopackIgnore: true*/ dataDir, ".dev-secret");
   if (existsSync(file)) {
     const kept = readFileSync(file, "utf8").trim();
     if (kept.length >= 32) return kept;
@@ -84,7 +84,8 @@ export function parseEnv(source: Record<string, string | undefined>): AppEnv {
   }
   if (problems.length) throw new EnvError(problems);
 
-  const databasePath = path.resolve(e.DATABASE_PATH);
+  // paths chosen at run time: tell the bundler not to trace them as build inputs
+  const databasePath = path.resolve(/*turbopackIgnore: true*/ e.DATABASE_PATH);
   const dataDir = path.dirname(databasePath);
   return {
     nodeEnv: e.NODE_ENV,
@@ -100,7 +101,7 @@ export function parseEnv(source: Record<string, string | undefined>): AppEnv {
     },
     mailFrom: e.MAIL_FROM,
     mailStandin: e.MAIL_STANDIN,
-    mailboxPath: path.resolve(e.MAILBOX_PATH ?? path.join(dataDir, "mailbox.jsonl")),
+    mailboxPath: path.resolve(/*turbopackIgnore: true*/ e.MAILBOX_PATH ?? path.join(dataDir, "mailbox.jsonl")),
     signinMailLimit: e.SIGNIN_MAIL_LIMIT,
     signinMailWindowMs: e.SIGNIN_MAIL_WINDOW_MINUTES * 60_000,
   };

@@ -1,7 +1,7 @@
 "use server";
 
 import { AuthError } from "next-auth";
-import { unstable_rethrow } from "next/navigation";
+import { redirect, unstable_rethrow } from "next/navigation";
 import { z } from "zod";
 import { findUserByEmail, normalizeEmail, savePendingSignup } from "@/db/queries/users";
 import { signIn } from "@/lib/auth";
@@ -69,14 +69,17 @@ export async function signInWithPassword(_prev: FormState, form: FormData): Prom
 }
 
 async function sendSignInLink(address: string, redirectTo: string, values: Record<string, string>): Promise<FormState> {
+  let next: string;
   try {
-    await signIn("nodemailer", { email: address, redirectTo });
+    // redirect: false hands back Auth.js's next URL instead of bouncing through /api/auth/verify-request
+    next = await signIn("nodemailer", { email: address, redirectTo, redirect: false });
   } catch (error) {
-    unstable_rethrow(error); // success redirects to the check-your-mail page
+    unstable_rethrow(error);
     console.error("[auth] sign-in mail not sent:", error instanceof Error ? error.message : error);
     return { error: MAIL_NOT_SENT, values };
   }
-  return { error: MAIL_NOT_SENT, values };
+  if (typeof next === "string" && /[?&]error=/.test(next)) return { error: MAIL_NOT_SENT, values };
+  redirect("/check-your-mail");
 }
 
 export async function signInWithLink(_prev: FormState, form: FormData): Promise<FormState> {

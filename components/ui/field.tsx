@@ -11,9 +11,10 @@ export function Field({
   hint,
   error,
   className,
+  id: givenId,
   ...input
 }: InputHTMLAttributes<HTMLInputElement> & { label: string; name: string; hint?: string; error?: string }) {
-  const id = input.id ?? `field-${name}`;
+  const id = givenId ?? `field-${name}`;
   const describedBy = [hint ? `${id}-hint` : null, error ? `${id}-error` : null].filter(Boolean).join(" ") || undefined;
   return (
     <div className={cx("flex flex-col gap-1", className)}>

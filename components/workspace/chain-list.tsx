@@ -36,7 +36,7 @@ export function ChainList({ chains }: { chains: ChainListRow[] | null }) {
   }
   return (
     <div className="overflow-x-auto rounded-card border border-paper-rule bg-paper-raised shadow-card">
-      <table className="w-full text-left text-sm" data-testid="chain-list">
+      <table className="w-full text-left text-sm" data-testid={chains ? "chain-list" : "chain-list-loading"}>
         <caption className="sr-only">Chains you can open</caption>
         <thead className="border-b border-paper-rule bg-paper-sunk/60 text-xs uppercase tracking-wide text-graphite-500">
           <tr>

@@ -1,11 +1,13 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { connection } from "next/server";
 import { Card } from "@/components/ui/card";
 import { mailStandinEnabled } from "@/lib/mail/standin";
 
 export const metadata: Metadata = { title: "Check your mail" };
 
-export default function CheckYourMailPage() {
+export default async function CheckYourMailPage() {
+  await connection(); // rendered per request: whether the stand-in is on is a run-time setting
   const standin = mailStandinEnabled();
   return (
     <Card className="flex flex-col gap-3 p-6">
