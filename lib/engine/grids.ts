@@ -1,0 +1,193 @@
+/**
+ * Frequency grids and the two numerical reductions done on them: the maximum of a response over a band
+ * and the integral of a density over a band. Frequencies in Hz at this level (they are band limits given
+ * by the user); integration is done in u = ln f.
+ */
+import { DC_BAND_DECADES, PEAK_POINTS_PER_DECADE } from "./constants";
+
+/** n log-spaced points from a to b inclusive; both ends exact. a, b > 0. */
+export function logGrid(a: number, b: number, n: number): Float64Array {
+  const out = new Float64Array(n);
+  if (n === 1) {
+    out[0] = a;
+    return out;
+  }
+  const la = Math.log(a);
+  const step = (Math.log(b) - la) / (n - 1);
+  for (let i = 0; i < n; i++) out[i] = Math.exp(la + i * step);
+  out[0] = a;
+  out[n - 1] = b;
+  return out;
+}
+
+/**
+ * Dense grid over a band [lo, hi] with exact limits, PEAK_POINTS_PER_DECADE per decade (at least 33
+ * points). lo = 0 puts f = 0 first, then a log grid from hi·10^−DC_BAND_DECADES. lo = hi gives one point.
+ */
+export function bandGrid(lo: number, hi: number, perDecade = PEAK_POINTS_PER_DECADE): Float64Array {
+  if (!(hi > lo)) return Float64Array.of(lo);
+  if (lo === 0) {
+    const start = hi * 10 ** -DC_BAND_DECADES;
+    const g = bandGrid(start, hi, perDecade);
+    const out = new Float64Array(g.length + 1);
+    out.set(g, 1);
+    return out;
+  }
+  const decades = Math.log10(hi / lo);
+  return logGrid(lo, hi, Math.max(33, Math.ceil(decades * perDecade) + 1));
+}
+
+export interface BandPeak {
+  /** largest value found (may be Infinity or NaN when a sample was not finite) */
+  value: number;
+  /** frequency where it is reached, Hz */
+  f: number;
+}
+
+/**
+ * Maximum of a function over a band, from samples on `grid` (values given) refined by golden-section
+ * search in ln f between the neighbours of the best sample. The band limits are grid points, so an
+ * edge maximum is exact. A non-finite sample is returned as is (the caller reports it).
+ */
+export function bandMax(grid: Float64Array, values: ArrayLike<number>, fn: (f: number) => number): BandPeak {
+  let best = 0;
+  for (let i = 0; i < grid.length; i++) {
+    const v = values[i];
+    if (!Number.isFinite(v)) return { value: v, f: grid[i] };
+    if (v > values[best]) best = i;
+  }
+  let peak: BandPeak = { value: values[best], f: grid[best] };
+  if (grid.length < 3) return peak;
+  const lo = grid[Math.max(0, best - 1)];
+  const hi = grid[Math.min(grid.length - 1, best + 1)];
+  if (!(lo > 0)) return peak; // next to f = 0: the log search cannot start there; samples are dense enough
+  const g = (Math.sqrt(5) - 1) / 2;
+  let a = Math.log(lo);
+  let b = Math.log(hi);
+  let x1 = b - g * (b - a);
+  let x2 = a + g * (b - a);
+  let f1 = fn(Math.exp(x1));
+  let f2 = fn(Math.exp(x2));
+  for (let it = 0; it < 80 && b - a > 1e-13 * Math.max(1, Math.abs(a)); it++) {
+    if (f1 >= f2) {
+      b = x2;
+      x2 = x1;
+      f2 = f1;
+      x1 = b - g * (b - a);
+      f1 = fn(Math.exp(x1));
+    } else {
+      a = x1;
+      x1 = x2;
+      f1 = f2;
+      x2 = a + g * (b - a);
+      f2 = fn(Math.exp(x2));
+    }
+  }
+  if (f1 > peak.value) peak = { value: f1, f: Math.exp(x1) };
+  if (f2 > peak.value) peak = { value: f2, f: Math.exp(x2) };
+  return peak;
+}
+
+// Gauss–Kronrod 7/15 nodes and weights on [−1, 1] (Kronrod extension of the 7-point Gauss rule).
+const XK = [
+  0.991455371120812639206854697526329, 0.949107912342758524526189684047851, 0.864864423359769072789712788640926,
+  0.741531185599394439863864773280788, 0.58608723546769113029414483825873, 0.405845151377397166906606412076961,
+  0.207784955007898467600689403773245, 0,
+];
+const WK = [
+  0.02293532201052922496373200805897, 0.063092092629978553290700663189204, 0.104790010322250183839876322541518,
+  0.140653259715525918745189590510238, 0.16900472663926790282658342659855, 0.190350578064785409913256402421014,
+  0.204432940075298892414161999234649, 0.209482141084727828012999174891714,
+];
+const WG = [0.129484966168869693270611432679082, 0.27970539148927666790146777142378, 0.381830050505118944950369775488975, 0.417959183673469387755102040816327];
+
+/** Points at which one panel [a, b] (in u = ln f) is sampled: 15 Kronrod nodes. */
+function panelNodes(a: number, b: number, out: Float64Array, offset: number): void {
+  const c = (a + b) / 2;
+  const h = (b - a) / 2;
+  for (let k = 0; k < 7; k++) {
+    out[offset + k] = Math.exp(c - h * XK[k]);
+    out[offset + 14 - k] = Math.exp(c + h * XK[k]);
+  }
+  out[offset + 7] = Math.exp(c);
+}
+
+/**
+ * ∫ from fa to fb of several densities S_j(f) df, adaptively: Gauss–Kronrod 7/15 panels in u = ln f
+ * (integrand S(e^u)·e^u), bisecting the panels that carry the error until the estimated error of the
+ * sum over components is under relTol of its value. `evaluate(freqs, out)` writes S_j(freqs[i]) into
+ * out[j][i]. Starts from four panels per decade. Returns one integral per component (units of S·Hz).
+ */
+export function integrateLog(
+  fa: number,
+  fb: number,
+  components: number,
+  evaluate: (freqs: Float64Array, out: Float64Array[]) => void,
+  relTol: number,
+  maxPanels = 4096,
+): Float64Array {
+  const result = new Float64Array(components);
+  if (!(fb > fa) || !(fa > 0)) return result;
+  const ua = Math.log(fa);
+  const ub = Math.log(fb);
+  const start = Math.max(2, Math.ceil((Math.log10(fb / fa)) * 4));
+  type Panel = { a: number; b: number; k: Float64Array; err: number };
+  let panels: Panel[] = [];
+  let pending: { a: number; b: number }[] = [];
+  for (let i = 0; i < start; i++) pending.push({ a: ua + ((ub - ua) * i) / start, b: ua + ((ub - ua) * (i + 1)) / start });
+
+  const evalPanels = (list: { a: number; b: number }[]): Panel[] => {
+    const freqs = new Float64Array(15 * list.length);
+    list.forEach((p, i) => panelNodes(p.a, p.b, freqs, 15 * i));
+    const vals = Array.from({ length: components }, () => new Float64Array(freqs.length));
+    evaluate(freqs, vals);
+    return list.map((p, i) => {
+      const h = (p.b - p.a) / 2;
+      const k = new Float64Array(components);
+      let kt = 0;
+      let gt = 0;
+      for (let j = 0; j < components; j++) {
+        const v = vals[j];
+        const o = 15 * i;
+        // integrand in u: S(f)·f
+        const y = (q: number) => v[o + q] * freqs[o + q];
+        let sk = WK[7] * y(7);
+        let sg = WG[3] * y(7);
+        for (let q = 0; q < 7; q++) {
+          const pair = y(q) + y(14 - q);
+          sk += WK[q] * pair;
+          if (q % 2 === 1) sg += WG[(q - 1) / 2] * pair;
+        }
+        k[j] = sk * h;
+        kt += sk * h;
+        gt += sg * h;
+      }
+      return { a: p.a, b: p.b, k, err: Math.abs(kt - gt) };
+    });
+  };
+
+  for (let round = 0; round < 40; round++) {
+    panels = panels.concat(evalPanels(pending));
+    pending = [];
+    let total = 0;
+    let err = 0;
+    for (const p of panels) {
+      for (let j = 0; j < components; j++) total += p.k[j];
+      err += p.err;
+    }
+    if (!Number.isFinite(total) || err <= relTol * Math.abs(total) || panels.length >= maxPanels) break;
+    const limit = (relTol * Math.abs(total)) / panels.length;
+    const keep: Panel[] = [];
+    for (const p of panels) {
+      if (p.err > limit && panels.length + pending.length < maxPanels) {
+        const mid = (p.a + p.b) / 2;
+        pending.push({ a: p.a, b: mid }, { a: mid, b: p.b });
+      } else keep.push(p);
+    }
+    if (!pending.length) break;
+    panels = keep;
+  }
+  if (pending.length) panels = panels.concat(evalPanels(pending));
+  for (const p of panels) for (let j = 0; j < components; j++) result[j] += p.k[j];
+  return result;
+}

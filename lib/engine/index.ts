@@ -1,0 +1,13 @@
+/**
+ * Chainwright analysis engine: pure TypeScript, no React, no Next, no I/O.
+ * See README.md in this folder for the model, internal units and how to add a stage kind.
+ */
+export { ENGINE_VERSION } from "./version";
+export { analyzeChain } from "./analyze";
+export { compileChain } from "./compile-chain";
+export type { CompiledChain, CompiledPath, SweepResult, TransferSource, TransferSourceType } from "./compile-chain";
+export { idealCharacteristics } from "./ideal";
+export type { IdealCharacteristics } from "./ideal";
+export { referenceResponse, referenceTransfer } from "./reference-path";
+export { toMagnitudePhase } from "./response";
+export { BOLTZMANN } from "./constants";

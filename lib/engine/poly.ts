@@ -1,0 +1,94 @@
+/**
+ * Real polynomials in the Laplace variable s, stored as ascending coefficient arrays:
+ * p(s) = c[0] + c[1]·s + c[2]·s² + …  (s in rad/s, coefficients in whatever unit the product carries).
+ * The engine builds every stage's transfer functions from these at compile time and evaluates them on
+ * the imaginary axis s = jω in the hot loops.
+ */
+
+export type Poly = Float64Array;
+
+export const ZERO: Poly = new Float64Array([0]);
+export const ONE: Poly = new Float64Array([1]);
+/** p(s) = s */
+export const S: Poly = new Float64Array([0, 1]);
+
+export function poly(...coeffs: number[]): Poly {
+  return trim(new Float64Array(coeffs.length ? coeffs : [0]));
+}
+
+/** Drops trailing exact zeros (keeps at least one coefficient) so degrees stay honest. */
+function trim(p: Poly): Poly {
+  let n = p.length;
+  while (n > 1 && p[n - 1] === 0) n--;
+  return n === p.length ? p : p.slice(0, n);
+}
+
+export function add(...ps: Poly[]): Poly {
+  let len = 1;
+  for (const p of ps) len = Math.max(len, p.length);
+  const out = new Float64Array(len);
+  for (const p of ps) for (let i = 0; i < p.length; i++) out[i] += p[i];
+  return trim(out);
+}
+
+export function scale(p: Poly, k: number): Poly {
+  const out = new Float64Array(p.length);
+  for (let i = 0; i < p.length; i++) out[i] = p[i] * k;
+  return trim(out);
+}
+
+export function mul(...ps: Poly[]): Poly {
+  let acc: Poly = ONE;
+  for (const p of ps) {
+    const out = new Float64Array(acc.length + p.length - 1);
+    for (let i = 0; i < acc.length; i++) {
+      const a = acc[i];
+      if (a === 0) continue;
+      for (let j = 0; j < p.length; j++) out[i + j] += a * p[j];
+    }
+    acc = trim(out);
+  }
+  return acc;
+}
+
+export function isZero(p: Poly): boolean {
+  for (let i = 0; i < p.length; i++) if (p[i] !== 0) return false;
+  return true;
+}
+
+/**
+ * Value of num(s)/den(s) as s → 0, from the lowest-order coefficients (exact cancellation of common
+ * factors of s, e.g. an ideal integrator's input admittance s·c2/(s·c2·r1) → 1/r1).
+ * Returns ±Infinity when the ratio has a pole at s = 0 and NaN when both are identically zero.
+ */
+export function limitAtZero(num: Poly, den: Poly): number {
+  let k = 0;
+  while (k < den.length && den[k] === 0) k++;
+  if (k === den.length) return NaN;
+  for (let j = 0; j < Math.min(k, num.length); j++) {
+    if (num[j] !== 0) return num[j] > 0 === den[k] > 0 ? Infinity : -Infinity;
+  }
+  return k < num.length ? num[k] / den[k] : 0;
+}
+
+/**
+ * num(jω)/den(jω) as [re, im]; at ω = 0 the limit of limitAtZero (imaginary part 0).
+ * For one-off evaluations outside the hot loops.
+ */
+export function ratioAt(num: Poly, den: Poly, w: number): [number, number] {
+  if (w === 0) return [limitAtZero(num, den), 0];
+  const ev = (c: Poly): [number, number] => {
+    let re = c[c.length - 1];
+    let im = 0;
+    for (let k = c.length - 2; k >= 0; k--) {
+      const nr = c[k] - im * w;
+      im = re * w;
+      re = nr;
+    }
+    return [re, im];
+  };
+  const [nr, ni] = ev(num);
+  const [dr, di] = ev(den);
+  const inv = 1 / (dr * dr + di * di);
+  return [(nr * dr + ni * di) * inv, (ni * dr - nr * di) * inv];
+}

@@ -1,0 +1,408 @@
+/**
+ * The straightforward path: at each frequency, nodal analysis of the network with complex.js numbers.
+ *
+ * Written independently of the fast path: no closed-form stage formulas and no two-port algebra. Each
+ * chain node contributes its elements (resistors, capacitors, an op-amp) exactly as drawn in
+ * chain-format.md's table; every segment of the network driven by one ideal voltage source (the source
+ * EMF or an op-amp output) is solved as one admittance system Y·V = J by Gaussian elimination with partial
+ * pivoting. The op-amp output row is replaced by its constraint Vo = A(s)·(V+ + en − V−), or V+ + en = V−
+ * for an ideal op-amp. The op-amp outputs found in one segment drive the segments below it.
+ *
+ * It serves the agreement tests (fast path against this one, 1e-9) and the benchmark; per point it
+ * allocates complex.js objects, so it is far slower than compile-chain.ts.
+ * Units: s = j·2π·f in rad/s; SI values.
+ */
+import Complex from "complex.js";
+import type { Chain, ChainNode, Part } from "../chain/types";
+import { buildTopology, isOpAmpKind } from "./topology";
+
+const GROUND = "0";
+const EMF = "emf";
+
+type Element =
+  | { t: "R"; a: string; b: string; r: number; key?: string }
+  | { t: "C"; a: string; b: string; c: number }
+  | { t: "OA"; p: string; m: string; o: string; part: Part | undefined; stage: string };
+
+/** Something that excites the network, named like the fast path's transfer sources. */
+export type Excitation =
+  | { t: "emf" }
+  | { t: "series"; key: string } // the Johnson voltage of a resistor, in series with it
+  | { t: "pin"; node: string } // a current drawn from `node` by an op-amp pin
+  | { t: "en"; stage: string } // a voltage in series with a stage's (+) input
+  | { t: "known"; node: string }; // a reference node (vref, vbias) at 1 V
+
+interface Segment {
+  root: string;
+  elements: Element[];
+}
+
+interface RefNetwork {
+  segments: Segment[];
+  /** segment index by the name of its root */
+  byRoot: Map<string, number>;
+  /** for each segment, the roots of the segments it drives */
+  childRoots: string[][];
+  /** known node values at DC (vref, vbias); all are 0 for AC */
+  dcKnown: Map<string, number>;
+  /** the point where each node's output (ADC: its input pin) is read, and each stage's (+) pin */
+  outPoint: Map<string, string>;
+  plusPoint: Map<string, string>;
+  inPoint: Map<string, string>;
+  sourceId: string;
+  sourceIsEmf: boolean;
+}
+
+function buildNetwork(chain: Chain): RefNetwork {
+  const topo = buildTopology(chain);
+  const src = topo.nodes[0];
+  if (src.kind !== "source") throw new Error("first node must be the source");
+  const rs = src.params.resistance;
+  const outPoint = new Map<string, string>();
+  const plusPoint = new Map<string, string>();
+  const inPoint = new Map<string, string>();
+  const dcKnown = new Map<string, number>();
+  // which segment root drives each point
+  const rootOf = new Map<string, string>();
+  const segments: Segment[] = [{ root: EMF, elements: [] }];
+  const byRoot = new Map<string, number>([[EMF, 0]]);
+  const sourceIsEmf = !(rs > 0);
+  const srcPoint = sourceIsEmf ? EMF : src.id;
+  outPoint.set(src.id, srcPoint);
+  rootOf.set(srcPoint, EMF);
+  if (!sourceIsEmf) segments[0].elements.push({ t: "R", a: EMF, b: src.id, r: rs, key: `${src.id}:resistance` });
+
+  const partOf = (node: ChainNode): Part | undefined => {
+    const key = "part" in node ? node.part : null;
+    return key ? chain.parts[key] : undefined;
+  };
+
+  for (let i = 1; i < topo.nodes.length; i++) {
+    const node = topo.nodes[i];
+    const vin = outPoint.get(topo.nodes[topo.parent[i]].id)!;
+    inPoint.set(node.id, vin);
+    const seg = segments[byRoot.get(rootOf.get(vin)!)!];
+    const id = node.id;
+    const el = seg.elements;
+    const R = (a: string, b: string, r: number, name: string) => el.push({ t: "R", a, b, r, key: `${id}:${name}` });
+    const C = (a: string, b: string, c: number) => el.push({ t: "C", a, b, c });
+    const vref = `${id}.vref`;
+    const a = `${id}.a`;
+    const m = `${id}.m`;
+    const p = `${id}.p`;
+    if (isOpAmpKind(node.kind)) {
+      outPoint.set(id, id);
+      rootOf.set(id, id);
+      byRoot.set(id, segments.length);
+      segments.push({ root: id, elements: [] });
+    }
+    switch (node.kind) {
+      case "inverting":
+      case "lossyIntegrator":
+      case "integrator": {
+        // r1 into (−); feedback r2 and/or c2 from the output to (−); (+) at vref
+        R(vin, m, node.params.r1, "r1");
+        if ("r2" in node.params) R(id, m, node.params.r2, "r2");
+        if ("c2" in node.params) C(id, m, node.params.c2);
+        el.push({ t: "OA", p: vref, m, o: id, part: partOf(node), stage: id });
+        dcKnown.set(vref, node.params.vref);
+        plusPoint.set(id, vref);
+        break;
+      }
+      case "noninverting": {
+        const { rf, rg } = node.params;
+        // rf null: (−) wired straight to the output
+        const minus = rf === null ? id : m;
+        if (rf !== null) R(id, m, rf, "rf");
+        if (rg !== null) R(vref, minus, rg, "rg");
+        el.push({ t: "OA", p: vin, m: minus, o: id, part: partOf(node), stage: id });
+        dcKnown.set(vref, node.params.vref);
+        plusPoint.set(id, vin);
+        break;
+      }
+      case "sallenKeyLowpass":
+        R(vin, a, node.params.r1, "r1");
+        R(a, p, node.params.r2, "r2");
+        C(a, id, node.params.c1);
+        C(p, vref, node.params.c2);
+        el.push({ t: "OA", p, m: id, o: id, part: partOf(node), stage: id });
+        dcKnown.set(vref, node.params.vref);
+        plusPoint.set(id, p);
+        break;
+      case "mfbLowpass":
+        R(vin, a, node.params.r1, "r1");
+        C(a, GROUND, node.params.c1);
+        R(id, a, node.params.r2, "r2");
+        R(a, m, node.params.r3, "r3");
+        C(m, id, node.params.c2);
+        el.push({ t: "OA", p: vref, m, o: id, part: partOf(node), stage: id });
+        dcKnown.set(vref, node.params.vref);
+        plusPoint.set(id, vref);
+        break;
+      case "rcLowpass":
+        R(vin, id, node.params.r, "r");
+        C(id, GROUND, node.params.c);
+        outPoint.set(id, id);
+        rootOf.set(id, rootOf.get(vin)!);
+        break;
+      case "rcHighpass": {
+        const vb = `${id}.vbias`;
+        C(vin, id, node.params.c);
+        R(vb, id, node.params.r, "r");
+        dcKnown.set(vb, node.params.vbias);
+        outPoint.set(id, id);
+        rootOf.set(id, rootOf.get(vin)!);
+        break;
+      }
+      case "adc":
+        if (node.params.inputResistance !== null) R(vin, GROUND, node.params.inputResistance, "rin");
+        outPoint.set(id, vin);
+        break;
+      case "source":
+        throw new Error("a chain has one source");
+    }
+  }
+  const childRoots = segments.map((s) => s.elements.filter((e) => e.t === "OA").map((e) => (e as { o: string }).o));
+  return { segments, byRoot, childRoots, dcKnown, outPoint, plusPoint, inPoint, sourceId: src.id, sourceIsEmf };
+}
+
+/** 1/A(s) of the single-pole model, or null for an infinite gain; A itself for the zero-gain case. */
+function openLoopAt(part: Part | undefined, s: Complex): { inv: Complex | null; a: Complex } {
+  const aol = part?.aol;
+  const gbw = part?.gbw;
+  if (aol === 0 || gbw === 0) return { inv: null, a: new Complex(0, 0) };
+  if (aol === undefined && gbw === undefined) return { inv: new Complex(0, 0), a: new Complex(Infinity, 0) };
+  // 1/A = 1/aol + s/ωt (each term present only when its figure is given)
+  let inv = new Complex(0, 0);
+  if (aol !== undefined) inv = inv.add(1 / aol);
+  if (gbw !== undefined) inv = inv.add(s.div(2 * Math.PI * gbw));
+  return { inv, a: new Complex(1, 0).div(inv) };
+}
+
+/** Solves A·x = b in place (Gaussian elimination, partial pivoting). Returns null if singular. */
+function solveLinear(A: Complex[][], b: Complex[]): Complex[] | null {
+  const k = b.length;
+  let scaleMax = 0;
+  for (const row of A) for (const v of row) scaleMax = Math.max(scaleMax, v.abs());
+  for (let col = 0; col < k; col++) {
+    let piv = col;
+    let best = A[col][col].abs();
+    for (let r = col + 1; r < k; r++) {
+      const v = A[r][col].abs();
+      if (v > best) {
+        best = v;
+        piv = r;
+      }
+    }
+    if (!(best > scaleMax * 1e-15)) return null;
+    if (piv !== col) {
+      [A[piv], A[col]] = [A[col], A[piv]];
+      [b[piv], b[col]] = [b[col], b[piv]];
+    }
+    for (let r = col + 1; r < k; r++) {
+      if (A[r][col].isZero()) continue;
+      const f = A[r][col].div(A[col][col]);
+      for (let c = col; c < k; c++) A[r][c] = A[r][c].sub(f.mul(A[col][c]));
+      b[r] = b[r].sub(f.mul(b[col]));
+    }
+  }
+  const x: Complex[] = new Array(k);
+  for (let r = k - 1; r >= 0; r--) {
+    let acc = b[r];
+    for (let c = r + 1; c < k; c++) acc = acc.sub(A[r][c].mul(x[c]));
+    x[r] = acc.div(A[r][r]);
+  }
+  return x;
+}
+
+/**
+ * Solves one segment at s with its root at `rootV`, known nodes from `known`, and the excitation.
+ * Returns the voltage of every node of the segment (root included), or null if the system is singular.
+ */
+function solveSegment(
+  seg: Segment,
+  s: Complex,
+  rootV: Complex,
+  known: (node: string) => Complex | undefined,
+  ex: Excitation | null,
+): Map<string, Complex> | null {
+  const fixed = new Map<string, Complex>([[GROUND, new Complex(0, 0)], [seg.root, rootV]]);
+  const isFixed = (x: string) => fixed.has(x) || known(x) !== undefined;
+  const value = (x: string) => fixed.get(x) ?? known(x)!;
+  const unknowns: string[] = [];
+  const idx = new Map<string, number>();
+  const note = (x: string) => {
+    if (!isFixed(x) && !idx.has(x)) {
+      idx.set(x, unknowns.length);
+      unknowns.push(x);
+    }
+  };
+  for (const e of seg.elements) {
+    if (e.t === "OA") {
+      note(e.p);
+      note(e.m);
+      note(e.o);
+    } else {
+      note(e.a);
+      note(e.b);
+    }
+  }
+  const k = unknowns.length;
+  const A: Complex[][] = Array.from({ length: k }, () => Array.from({ length: k }, () => new Complex(0, 0)));
+  const J: Complex[] = Array.from({ length: k }, () => new Complex(0, 0));
+  const opRows = new Set<number>();
+  for (const e of seg.elements) if (e.t === "OA" && idx.has(e.o)) opRows.add(idx.get(e.o)!);
+
+  // admittance y between a and b
+  const stamp = (a: string, b: string, y: Complex) => {
+    const ia = idx.get(a);
+    const ib = idx.get(b);
+    if (ia !== undefined && !opRows.has(ia)) {
+      A[ia][ia] = A[ia][ia].add(y);
+      if (ib !== undefined) A[ia][ib] = A[ia][ib].sub(y);
+      else J[ia] = J[ia].add(y.mul(value(b)));
+    }
+    if (ib !== undefined && !opRows.has(ib)) {
+      A[ib][ib] = A[ib][ib].add(y);
+      if (ia !== undefined) A[ib][ia] = A[ib][ia].sub(y);
+      else J[ib] = J[ib].add(y.mul(value(a)));
+    }
+  };
+  const inject = (x: string, amount: Complex) => {
+    const i = idx.get(x);
+    if (i !== undefined && !opRows.has(i)) J[i] = J[i].add(amount);
+  };
+  for (const e of seg.elements) {
+    if (e.t === "R") {
+      const g = new Complex(1 / e.r, 0);
+      stamp(e.a, e.b, g);
+      if (ex?.t === "series" && ex.key === e.key) {
+        // a unit voltage in series, a→b: a current g from a to b
+        inject(e.a, g.neg());
+        inject(e.b, g);
+      }
+    } else if (e.t === "C") {
+      stamp(e.a, e.b, s.mul(e.c));
+    }
+  }
+  if (ex?.t === "pin") inject(ex.node, new Complex(-1, 0));
+  for (const e of seg.elements) {
+    if (e.t !== "OA") continue;
+    const row = idx.get(e.o);
+    if (row === undefined) continue;
+    const en = ex?.t === "en" && ex.stage === e.stage ? 1 : 0;
+    const { inv, a } = openLoopAt(e.part, s);
+    // row: Vo·(1/A) − V+ + V− = en   (ideal: 1/A = 0);  zero gain: Vo = 0
+    const put = (x: string, coef: Complex) => {
+      const i = idx.get(x);
+      if (i !== undefined) A[row][i] = A[row][i].add(coef);
+      else J[row] = J[row].sub(coef.mul(value(x)));
+    };
+    if (inv === null || !a.isFinite()) {
+      if (inv === null) put(e.o, new Complex(1, 0));
+      else {
+        put(e.p, new Complex(-1, 0));
+        put(e.m, new Complex(1, 0));
+        J[row] = J[row].add(en);
+      }
+    } else {
+      put(e.o, inv);
+      put(e.p, new Complex(-1, 0));
+      put(e.m, new Complex(1, 0));
+      J[row] = J[row].add(en);
+    }
+  }
+  const x = solveLinear(A, J);
+  if (!x) return null;
+  const out = new Map<string, Complex>(fixed);
+  unknowns.forEach((u, i) => out.set(u, x[i]));
+  return out;
+}
+
+export interface ReferenceSolution {
+  /** voltage at every named point (per unit of the excitation); missing where the network is singular */
+  voltages: Map<string, Complex>;
+  singular: boolean;
+}
+
+function solveAll(net: RefNetwork, fHz: number, ex: Excitation, dcValues: boolean): ReferenceSolution {
+  const s = new Complex(0, 2 * Math.PI * fHz);
+  const known = (x: string): Complex | undefined => {
+    if (!net.dcKnown.has(x)) return undefined;
+    if (ex.t === "known" && ex.node === x) return new Complex(1, 0);
+    return new Complex(dcValues ? net.dcKnown.get(x)! : 0, 0);
+  };
+  const voltages = new Map<string, Complex>();
+  let singular = false;
+  const visit = (segIdx: number, rootV: Complex) => {
+    const seg = net.segments[segIdx];
+    const v = solveSegment(seg, s, rootV, known, ex);
+    if (!v) {
+      singular = true;
+      return;
+    }
+    for (const [k, val] of v) voltages.set(k, val);
+    for (const r of net.childRoots[segIdx]) visit(net.byRoot.get(r)!, v.get(r)!);
+  };
+  visit(0, new Complex(ex.t === "emf" ? 1 : 0, 0));
+  return { voltages, singular };
+}
+
+/** Response of every node (cumulative over the EMF, and its own transfer) at the given frequencies. */
+export function referenceResponse(
+  chain: Chain,
+  freqsHz: number[],
+): Map<string, { cum: (Complex | null)[]; ind: (Complex | null)[] }> {
+  const net = buildNetwork(chain);
+  const topo = buildTopology(chain);
+  const out = new Map<string, { cum: (Complex | null)[]; ind: (Complex | null)[] }>();
+  for (const node of topo.nodes) out.set(node.id, { cum: [], ind: [] });
+  for (const f of freqsHz) {
+    const { voltages } = solveAll(net, f, { t: "emf" }, false);
+    for (const node of topo.nodes) {
+      const r = out.get(node.id)!;
+      const vo = voltages.get(net.outPoint.get(node.id)!) ?? null;
+      r.cum.push(vo);
+      if (node.kind === "source") r.ind.push(vo);
+      else if (node.kind === "adc") r.ind.push(new Complex(1, 0));
+      else {
+        const vi = voltages.get(net.inPoint.get(node.id)!) ?? null;
+        r.ind.push(vo && vi ? vo.div(vi) : null);
+      }
+    }
+  }
+  return out;
+}
+
+/** Excitation for a transfer-source key of the fast path (`node:element`). */
+function excitationFor(net: RefNetwork, chain: Chain, key: string): Excitation | null {
+  const [id, element] = key.split(":");
+  const node = chain.nodes.find((x) => x.id === id);
+  if (!node) return null;
+  if (element === "emf") return { t: "emf" };
+  if (element === "en") return { t: "en", stage: id };
+  if (element === "vref") return { t: "known", node: `${id}.vref` };
+  if (element === "in+") return { t: "pin", node: net.plusPoint.get(id)! };
+  if (element === "in-") {
+    const minus =
+      node.kind === "noninverting" && node.params.rf === null ? id : `${id}.m`;
+    return { t: "pin", node: minus };
+  }
+  return { t: "series", key };
+}
+
+/**
+ * Transfer from one source (named as in CompiledChain.sources) to a node's output point (ADC: input pin)
+ * or, with `plus`, to an op-amp stage's (+) pin, at fHz (0 = DC, capacitors open). Null if singular.
+ */
+export function referenceTransfer(chain: Chain, key: string, nodeId: string, plus: boolean, fHz: number): Complex | null {
+  const net = buildNetwork(chain);
+  const ex = excitationFor(net, chain, key);
+  if (!ex) return null;
+  const { voltages, singular } = solveAll(net, fHz, ex, false);
+  if (singular) return null;
+  const point = plus ? net.plusPoint.get(nodeId) : net.outPoint.get(nodeId);
+  if (!point) return null;
+  if (point.endsWith(".vref")) return new Complex(ex.t === "known" && ex.node === point ? 1 : 0, 0);
+  return voltages.get(point) ?? new Complex(0, 0);
+}

@@ -1,0 +1,245 @@
+/**
+ * Closed-form models of the op-amp stage kinds for the fast path.
+ *
+ * Each stage is a linear network driven by the voltage Vin at its input terminal, with the op-amp as
+ * Vo = A(s)·(V+ − V−), A = n/d (see open-loop.ts). Eliminating the internal nodes by hand gives, over one
+ * common denominator den(s), the numerators of
+ *   - Vo/Vin (the stage's transfer function H),
+ *   - Iin/Vin (its input admittance: current drawn from the driving node, exact with finite gain),
+ *   - V+/Vin (the voltage at the (+) pin, for the input-range check),
+ * and the same three responses to each internal source:
+ *   - the Johnson noise voltage of every resistor, in series with it (orientation: `from`→`to` below),
+ *   - en (a voltage in series with the (+) input; the offset vos uses the same path),
+ *   - in+ / in− (a current drawn by the pin from its node; the bias currents ib use the same path),
+ *   - vref (the reference voltage itself; used at DC only).
+ * Multiplying through by d keeps ideal op-amps (d ≡ 0) free of division by A: with n = 1, d = 0 every
+ * expression reduces to the ideal H(s) of chain-format.md's table. The eliminations were done by nodal
+ * analysis of each topology as drawn in that table; the complex.js reference path (reference-path.ts)
+ * solves the same networks numerically and the agreement test holds the two to 1e-9.
+ * Units: s in rad/s, resistances in ohms, capacitances in farads; Iin/Vin in siemens, V/A for currents.
+ */
+import type {
+  IntegratorParams,
+  InvertingParams,
+  LossyIntegratorParams,
+  MfbLowpassParams,
+  NonInvertingParams,
+  OpAmpKind,
+  OpAmpNode,
+  SallenKeyLowpassParams,
+} from "../chain/types";
+import type { OpenLoop } from "./open-loop";
+import { add, mul, poly, scale, S, ZERO, type Poly } from "./poly";
+
+/** How an internal source enters the network (decides its noise density and DC role). */
+export type InternalSourceType = "johnson" | "en" | "in+" | "in-" | "vref";
+
+export interface StageResponse {
+  /** numerator of the output voltage */
+  vo: Poly;
+  /** numerator of the current drawn from the input terminal */
+  iin: Poly;
+  /** numerator of the (+) pin voltage */
+  p: Poly;
+}
+
+export interface InternalSource extends StageResponse {
+  /** element name used in results: r1, r2, r3, rf, rg, en, in+, in-, vref */
+  element: string;
+  type: InternalSourceType;
+  /** ohms, for Johnson sources */
+  resistance?: number;
+}
+
+export interface StageModel {
+  kind: OpAmpKind;
+  den: Poly;
+  /** response to the input terminal voltage */
+  vin: StageResponse;
+  /** internal sources; the last one is always `vref` */
+  sources: InternalSource[];
+}
+
+const resp = (vo: Poly, iin: Poly, p: Poly): StageResponse => ({ vo, iin, p });
+const johnson = (element: string, resistance: number, r: StageResponse): InternalSource => ({
+  element,
+  type: "johnson",
+  resistance,
+  ...r,
+});
+const src = (element: string, type: InternalSourceType, r: StageResponse): InternalSource => ({
+  element,
+  type,
+  ...r,
+});
+const neg = (p: Poly) => scale(p, -1);
+
+/**
+ * The inverting family: r1 Vin→(−), a feedback impedance Z2 = zn/zd from out to (−), (+) at vref.
+ * den = d·(r1·zd + zn) + n·r1·zd; H = −n·zn/den (→ −Z2/r1 ideal); Yin = (d + n)·zd/den, exactly
+ * 1/(r1 + Z2/(1 + A)) with finite gain. A resistor r2 in the feedback (inverting, lossy integrator) adds
+ * its Johnson source with Vo = −n·r1, Iin = −d over den.
+ */
+function invertingFamily(
+  kind: OpAmpKind,
+  r1: number,
+  zn: Poly,
+  zd: Poly,
+  r2: number | null,
+  { n, d }: OpenLoop,
+): StageModel {
+  const r1zd = scale(zd, r1);
+  const den = add(mul(d, add(r1zd, zn)), mul(n, r1zd));
+  const vin = resp(neg(mul(n, zn)), mul(add(d, n), zd), ZERO);
+  const enR = resp(mul(n, add(r1zd, zn)), neg(mul(n, zd)), ZERO);
+  const sources: InternalSource[] = [johnson("r1", r1, vin)]; // r1: Vin → (−)
+  if (r2 !== null) sources.push(johnson("r2", r2, resp(scale(n, -r1), neg(d), ZERO))); // r2: out → (−)
+  sources.push(
+    src("en", "en", enR),
+    src("in-", "in-", resp(mul(n, zn, poly(r1)), mul(d, zn), ZERO)),
+    src("vref", "vref", { ...enR, p: den }),
+  );
+  return { kind, den, vin, sources };
+}
+
+/** Inverting stage: Z2 = r2; ideal H = −r2/r1. */
+const inverting = ({ r1, r2 }: InvertingParams, ol: OpenLoop) =>
+  invertingFamily("inverting", r1, poly(r2), poly(1), r2, ol);
+
+/** Lossy integrator: Z2 = r2 ∥ c2 = r2/(1 + s·c2·r2); ideal H = −(r2/r1)/(1 + s·r2·c2). */
+const lossyIntegrator = ({ r1, r2, c2 }: LossyIntegratorParams, ol: OpenLoop) =>
+  invertingFamily("lossyIntegrator", r1, poly(r2), poly(1, c2 * r2), r2, ol);
+
+/** Integrator: Z2 = 1/(s·c2); ideal H = −1/(s·r1·c2), a pole at s = 0. */
+const integrator = ({ r1, c2 }: IntegratorParams, ol: OpenLoop) =>
+  invertingFamily("integrator", r1, poly(1), poly(0, c2), null, ol);
+
+/**
+ * Non-inverting stage: Vin→(+), rf out→(−), rg (−)→vref. rf null is a wire (gain 1); rg null is a
+ * follower (rf, if given, still joins out to (−) and only carries the (−) pin current).
+ * den = d·(rf + rg) + n·rg; H = n·(rf + rg)/den (→ 1 + rf/rg ideal). The input draws only the (+) pin
+ * current.
+ */
+function noninverting({ rf, rg }: NonInvertingParams, { n, d }: OpenLoop): StageModel {
+  const sources: InternalSource[] = [];
+  if (rg === null) {
+    const den = add(d, n);
+    if (rf !== null) sources.push(johnson("rf", rf, resp(neg(n), ZERO, ZERO))); // rf: out → (−)
+    sources.push(
+      src("en", "en", resp(n, ZERO, ZERO)),
+      src("in-", "in-", resp(scale(n, rf ?? 0), ZERO, ZERO)),
+      src("in+", "in+", resp(ZERO, den, ZERO)),
+      src("vref", "vref", resp(ZERO, ZERO, ZERO)),
+    );
+    return { kind: "noninverting", den, vin: resp(n, ZERO, den), sources };
+  }
+  const f = rf ?? 0;
+  const den = add(scale(d, f + rg), scale(n, rg));
+  if (rf !== null) sources.push(johnson("rf", rf, resp(scale(n, -rg), ZERO, ZERO))); // rf: out → (−)
+  sources.push(
+    johnson("rg", rg, resp(scale(n, -f), ZERO, ZERO)), // rg: vref → (−)
+    src("en", "en", resp(scale(n, f + rg), ZERO, ZERO)),
+    src("in-", "in-", resp(scale(n, f * rg), ZERO, ZERO)),
+    src("in+", "in+", resp(ZERO, den, ZERO)),
+    src("vref", "vref", resp(scale(n, -f), ZERO, ZERO)),
+  );
+  return { kind: "noninverting", den, vin: resp(scale(n, f + rg), ZERO, den), sources };
+}
+
+/**
+ * Unity-gain Sallen-Key low-pass: r1 Vin→A, r2 A→(+), c1 A→out, c2 (+)→vref, out tied to (−).
+ * With Di = 1 + s·c2·(r1 + r2) + s²·r1·r2·c1·c2 (the ideal denominator) and Dx = Di + s·c1·r1:
+ * den = d·Dx + n·Di; H = n/den (→ 1/Di ideal). Equivalent to references.md §6's finite-A form.
+ */
+function sallenKey({ r1, r2, c1, c2 }: SallenKeyLowpassParams, { n, d }: OpenLoop): StageModel {
+  const di = poly(1, c2 * (r1 + r2), c1 * c2 * r1 * r2);
+  const dx = add(di, poly(0, c1 * r1));
+  const den = add(mul(d, dx), mul(n, di));
+  const dn = add(d, n);
+  const vin = resp(
+    n,
+    mul(S, add(mul(d, poly(c1 + c2, c1 * c2 * r2)), mul(n, poly(c2, c1 * c2 * r2)))),
+    dn,
+  );
+  const pLoad = poly(r1 + r2, c1 * r1 * r2); // r1 + r2 + s·c1·r1·r2
+  const inPlusIin = add(dn, mul(n, poly(0, c1 * r2)));
+  return {
+    kind: "sallenKeyLowpass",
+    den,
+    vin,
+    sources: [
+      johnson("r1", r1, vin), // r1: Vin → A
+      johnson(
+        "r2",
+        r2,
+        resp(
+          mul(n, poly(1, c1 * r1)),
+          mul(S, add(scale(dn, c2), scale(n, -c1))),
+          mul(dn, poly(1, c1 * r1)),
+        ),
+      ), // r2: A → (+)
+      src("en", "en", resp(mul(n, dx), neg(mul(n, poly(0, c1), poly(1, c2 * r2))), mul(n, poly(0, c1 * r1)))),
+      src("in+", "in+", resp(neg(mul(n, pLoad)), inPlusIin, neg(mul(dn, pLoad)))),
+      src(
+        "vref",
+        "vref",
+        resp(mul(n, poly(0, c2), pLoad), neg(mul(poly(0, c2), inPlusIin)), mul(poly(0, c2), dn, pLoad)),
+      ),
+    ],
+  };
+}
+
+/**
+ * Multiple-feedback low-pass: r1 Vin→A, c1 A→ground, r2 A→out, r3 A→(−), c2 (−)→out, (+) at vref.
+ * With Σ = r1r2 + r1r3 + r2r3 and Q2 = c1c2r1r2r3:
+ * den = d·(r1 + r2 + s·(c1r1r2 + c2Σ) + s²Q2) + n·(r1 + s·c2Σ + s²Q2); H = −n·r2/den
+ * (→ −(r2/r1)/(1 + s·c2·(r2 + r3 + r2r3/r1) + s²·c1c2r2r3) ideal).
+ */
+function mfb({ r1, r2, r3, c1, c2 }: MfbLowpassParams, { n, d }: OpenLoop): StageModel {
+  const sig = r1 * r2 + r1 * r3 + r2 * r3;
+  const q2 = c1 * c2 * r1 * r2 * r3;
+  const dd = poly(r1 + r2, c1 * r1 * r2 + c2 * sig, q2);
+  const den = add(mul(d, dd), mul(n, poly(r1, c2 * sig, q2)));
+  const dn = add(d, n);
+  const vin = resp(
+    scale(n, -r2),
+    add(mul(d, poly(1, c1 * r2 + c2 * (r2 + r3), c1 * c2 * r2 * r3)), mul(n, poly(1, c2 * (r2 + r3), c1 * c2 * r2 * r3))),
+    ZERO,
+  );
+  const enR = resp(mul(n, dd), neg(mul(n, poly(1, c2 * (r2 + r3)))), ZERO);
+  return {
+    kind: "mfbLowpass",
+    den,
+    vin,
+    sources: [
+      johnson("r1", r1, vin), // r1: Vin → A
+      johnson("r2", r2, resp(scale(n, -r1), neg(add(d, mul(poly(0, c2 * r3), dn))), ZERO)), // r2: out → A
+      johnson(
+        "r3",
+        r3,
+        resp(neg(mul(n, poly(r1 + r2, c1 * r1 * r2))), add(n, mul(poly(0, c2 * r2), dn)), ZERO),
+      ), // r3: A → (−)
+      src("en", "en", enR),
+      src("in-", "in-", resp(mul(n, poly(sig, c1 * r1 * r2 * r3)), add(scale(d, r2), scale(n, -r3)), ZERO)),
+      src("vref", "vref", { ...enR, p: den }),
+    ],
+  };
+}
+
+/** Builds the closed-form model of an op-amp stage for the given open-loop gain. */
+export function stageModel(node: OpAmpNode, ol: OpenLoop): StageModel {
+  switch (node.kind) {
+    case "inverting":
+      return inverting(node.params, ol);
+    case "noninverting":
+      return noninverting(node.params, ol);
+    case "lossyIntegrator":
+      return lossyIntegrator(node.params, ol);
+    case "integrator":
+      return integrator(node.params, ol);
+    case "sallenKeyLowpass":
+      return sallenKey(node.params, ol);
+    case "mfbLowpass":
+      return mfb(node.params, ol);
+  }
+}
