@@ -26,7 +26,7 @@ import {
 } from "./types";
 import { checked, describeFound, idField, idProblem, num, numOrNull, oneOf, text, VOLTS, type NumberRule } from "./fields";
 import { crossParamIssues, KIND_WORDS, PARAM_SPECS, type ParamSpec } from "./params";
-import { graphIssues, isOpAmpKind, isPlainObject, type Level, type RawIssue } from "./graph";
+import { graphIssues, isOpAmpKind, isPlainObject, type Level } from "./graph";
 import { migrateChain, readFormat } from "./migrate";
 import { errorText, toPlainJson } from "./plain-json";
 import { planSubchain } from "./subchain";

@@ -5,6 +5,7 @@ import { describe, expect, it } from "vitest";
 import { completeSubchain, validateChain, validateDraft } from "@/lib/chain/schema";
 import { exampleChain } from "@/lib/chain/example";
 
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- documents under test are built and broken freely
 type Doc = Record<string, any>;
 const rails = { low: -5, high: 5 };
 const src = (params: Doc = {}) => ({ id: "src", kind: "source", params: { dc: 0, amplitude: 0.1, fLow: 1, fHigh: 100, ...params } });

@@ -7,6 +7,7 @@ import fc from "fast-check";
 import { completeSubchain, validateChain, validateDraft } from "@/lib/chain/schema";
 import type { ChainIssue } from "@/lib/chain/types";
 
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- documents under test are built and broken freely
 type Doc = Record<string, any>;
 
 const pos = fc.double({ min: 1e-12, max: 1e9, noNaN: true });
@@ -83,7 +84,7 @@ function mutate(doc: Doc, muts: Mutation[]): unknown {
       if (m.kind === "set") root = m.value;
       continue;
     }
-    let parent: any = root;
+    let parent = root as Doc;
     for (const seg of path.slice(0, -1)) parent = parent[seg];
     const last = path[path.length - 1];
     if (m.kind === "set") parent[last] = m.value;
