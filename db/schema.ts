@@ -193,6 +193,10 @@ export const revisions = sqliteTable(
     summary: text("summary").notNull().default(""),
     pinned: integer("pinned", { mode: "boolean" }).notNull().default(false),
     createdAt: createdAt(),
+    /** last save folded into this revision (consecutive autosaves by one author); null when never folded */
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" }),
+    /** how many saves this revision holds (1 unless autosaves were folded into it) */
+    saves: integer("saves").notNull().default(1),
   },
   (t) => [uniqueIndex("revisions_chain_number_idx").on(t.chainId, t.number)],
 );
@@ -235,6 +239,13 @@ export const reviews = sqliteTable(
     note: text("note").notNull().default(""),
     createdAt: createdAt(),
     decidedAt: integer("decided_at", { mode: "timestamp_ms" }),
+    /** one review request asks several reviewers: their rows share this id */
+    round: text("round"),
+    /** the revision the reviewer's decision was about (an approval names what it approved) */
+    decidedRevisionId: text("decided_revision_id").references(() => revisions.id, { onDelete: "set null" }),
+    /** when the request stopped being the chain's open one, and why (superseded, edited after approval) */
+    closedAt: integer("closed_at", { mode: "timestamp_ms" }),
+    closedReason: text("closed_reason"),
   },
   (t) => [index("reviews_chain_idx").on(t.chainId)],
 );
