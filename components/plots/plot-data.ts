@@ -41,6 +41,30 @@ export interface PlotInput {
   sampleRate: number | null;
 }
 
+const RAD_TO_DEG = 180 / Math.PI;
+const dbCache = new WeakMap<Float64Array, { db: Float64Array; ph: Float64Array }>();
+
+/**
+ * Magnitude 20·log10|H| (dB) and phase atan2 (degrees, wrapped to (−180, 180]) of a complex response;
+ * cached per array, so switching back and forth between modes costs nothing.
+ */
+export function dbPhase(re: Float64Array, im: Float64Array): { db: Float64Array; ph: Float64Array } {
+  const hit = dbCache.get(re);
+  if (hit) return hit;
+  const db = new Float64Array(re.length);
+  const ph = new Float64Array(re.length);
+  for (let k = 0; k < re.length; k++) {
+    const m = Math.hypot(re[k], im[k]);
+    db[k] = m > 0 && Number.isFinite(m) ? 20 * Math.log10(m) : NaN;
+    let p = Math.atan2(im[k], re[k]) * RAD_TO_DEG;
+    if (p <= -180) p += 360;
+    ph[k] = Number.isFinite(m) ? p : NaN;
+  }
+  const out = { db, ph };
+  dbCache.set(re, out);
+  return out;
+}
+
 /** Series along the path, source left out; in "individual" mode the ADC (a flat 1) is left out too. */
 export function plotSeries(input: PlotInput): PlotSeries[] {
   const { curves, path, mode } = input;
@@ -51,13 +75,8 @@ export function plotSeries(input: PlotInput): PlotSeries[] {
     if (i === undefined) continue;
     const stage = input.stages[id];
     if (mode === "individual" && !stage) continue;
-    out.push({
-      id,
-      name: input.names[id] ?? id,
-      db: mode === "cumulative" ? curves.cumDb[i] : curves.indDb[i],
-      ph: mode === "cumulative" ? curves.cumPh[i] : curves.indPh[i],
-      emphasis: id === target,
-    });
+    const { db, ph } = mode === "cumulative" ? dbPhase(curves.cumRe[i], curves.cumIm[i]) : dbPhase(curves.indRe[i], curves.indIm[i]);
+    out.push({ id, name: input.names[id] ?? id, db, ph, emphasis: id === target });
   }
   return out;
 }

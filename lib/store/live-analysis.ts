@@ -1,61 +1,80 @@
 /**
- * Live analysis of the draft while the user edits: the part of the draft that is complete
- * (completeSubchain) goes through the engine's full analysis for the figures and warnings, and through the
- * engine's compiled fast sweep for the plot curves of every node (cumulative and each stage on its own).
+ * Live analysis of the draft while the user edits, in two tiers:
  *
- * Pure and synchronous; the workspace decides when to run it (see the driver below and the benchmark).
+ * - the quick tier, on every edit: the part of the draft that is complete (completeSubchain), the
+ *   engine's analysis for DC intervals, signal peaks, status and warnings, and the engine's compiled
+ *   fast sweep for the plot curves of every node (cumulative and each stage on its own);
+ * - the full tier, when the user pauses: the complete analysis with noise, which fills in the figures
+ *   that need it (SNR, ENOB, noise contributions).
+ *
+ * Noise integration is most of the engine's time (it carries every resistor and op-amp noise source
+ * through its own transfer function over a dense grid), so the quick tier asks the engine for a
+ * one-point response and a vanishing noise band; none of the headroom figures depend on either, and
+ * the noise figures of the quick tier are never shown. Both tiers are pure functions; the workspace
+ * runs them in web workers (analysis.worker.ts) so typing never waits for them.
  */
 import type { AdcResult, AnalysisResult, AnalysisWarning, Chain, ChainIssue, StageResult } from "@/lib/chain/types";
 import { completeSubchain } from "@/lib/chain/schema";
 import { analyzeChain, compileChain } from "@/lib/engine";
 import type { DraftDoc } from "./draft";
 
-/** Magnitude (dB) and phase (degrees, wrapped to (−180, 180]) of every analysed node on the plot grid. */
+/** Complex response of every analysed node on the plot grid (re/im over the source EMF). */
 export interface LiveCurves {
   f: Float64Array;
   /** node id → index into the arrays below */
   index: Record<string, number>;
-  cumDb: Float64Array[];
-  cumPh: Float64Array[];
-  indDb: Float64Array[];
-  indPh: Float64Array[];
+  cumRe: Float64Array[];
+  cumIm: Float64Array[];
+  indRe: Float64Array[];
+  indIm: Float64Array[];
+}
+
+export interface QuickTier {
+  chain: Chain | null;
+  issues: ChainIssue[];
+  result: AnalysisResult | null;
+  curves: LiveCurves | null;
+  ms: number;
+  error: string | null;
+}
+
+export interface FullTier {
+  result: AnalysisResult | null;
+  ms: number;
+  error: string | null;
 }
 
 export interface LiveAnalysis {
   /** the document this analysis belongs to (by reference) */
   doc: DraftDoc;
+  /** the store's revision of that document */
+  rev: number;
   /** the part of the draft complete enough to analyse */
   chain: Chain | null;
   /** why the rest is not analysed yet */
   issues: ChainIssue[];
+  /** the quick tier's result (no noise figures) */
   result: AnalysisResult | null;
+  /** the full analysis of this same document, once it has run */
+  full: AnalysisResult | null;
   curves: LiveCurves | null;
   stageById: Record<string, StageResult>;
+  /** converter figures; snrDb and enob are null until the full analysis of this document is in */
   adcById: Record<string, AdcResult>;
   warningsByNode: Record<string, AnalysisWarning[]>;
+  /** the warnings to list: the full analysis's when it matches this document, else the quick tier's */
+  warnings: AnalysisWarning[];
   /** for nodes left out of the analysis: why, in words */
   reasonById: Record<string, string>;
   /** source → sink paths of the analysed chain */
   paths: string[][];
-  /** wall time of the analysis, ms */
+  /** wall time of the quick tier, ms */
   ms: number;
   /** an engine failure, in words (never expected; shown rather than swallowed) */
   error: string | null;
 }
 
-const RAD_TO_DEG = 180 / Math.PI;
-
-function toDbPhase(re: Float64Array, im: Float64Array, db: Float64Array, ph: Float64Array) {
-  for (let k = 0; k < re.length; k++) {
-    const m = Math.hypot(re[k], im[k]);
-    db[k] = m > 0 && Number.isFinite(m) ? 20 * Math.log10(m) : NaN;
-    let p = Math.atan2(im[k], re[k]) * RAD_TO_DEG;
-    if (p <= -180) p += 360;
-    ph[k] = Number.isFinite(p) ? p : NaN;
-  }
-}
-
-/** Log-spaced grid of n points from a to b (Hz). */
+/** Log-spaced grid of n points from a to b (Hz), ends exact. */
 export function logGrid(a: number, b: number, n: number): Float64Array {
   const out = new Float64Array(n);
   const la = Math.log10(a);
@@ -72,66 +91,96 @@ export function computeCurves(chain: Chain): LiveCurves {
   const { fMin, fMax, points } = chain.analysis;
   const f = logGrid(fMin, fMax, points);
   const sw = cc.sweep(f);
-  const n = cc.nodeIds.length;
-  const curves: LiveCurves = { f, index: {}, cumDb: [], cumPh: [], indDb: [], indPh: [] };
-  for (let i = 0; i < n; i++) {
-    curves.index[cc.nodeIds[i]] = i;
-    const cd = new Float64Array(f.length), cp = new Float64Array(f.length), id = new Float64Array(f.length), ip = new Float64Array(f.length);
-    toDbPhase(sw.cumRe[i], sw.cumIm[i], cd, cp);
-    toDbPhase(sw.indRe[i], sw.indIm[i], id, ip);
-    curves.cumDb.push(cd);
-    curves.cumPh.push(cp);
-    curves.indDb.push(id);
-    curves.indPh.push(ip);
-  }
-  return curves;
+  const index: Record<string, number> = {};
+  cc.nodeIds.forEach((id, i) => (index[id] = i));
+  return { f, index, cumRe: sw.cumRe, cumIm: sw.cumIm, indRe: sw.indRe, indIm: sw.indIm };
 }
 
-const NODE_PATH = /^nodes\[(\d+)\]/;
+const errText = (e: unknown) => (e instanceof Error ? e.message : String(e));
 
-export function analyseDraft(doc: DraftDoc): LiveAnalysis {
+/** Headroom, status, warnings and curves; no noise. */
+export function quickTier(doc: DraftDoc): QuickTier {
   const t0 = performance.now();
-  const out: LiveAnalysis = {
-    doc,
-    chain: null,
-    issues: [],
-    result: null,
-    curves: null,
-    stageById: {},
-    adcById: {},
-    warningsByNode: {},
-    reasonById: {},
-    paths: [],
-    ms: 0,
-    error: null,
-  };
+  const out: QuickTier = { chain: null, issues: [], result: null, curves: null, ms: 0, error: null };
   try {
     const sub = completeSubchain(doc);
     out.chain = sub.chain;
     out.issues = sub.issues;
-    for (const issue of sub.issues) {
-      const m = NODE_PATH.exec(issue.path);
-      const id = m ? doc.nodes[Number(m[1])]?.id : undefined;
-      if (id && !out.reasonById[id]) out.reasonById[id] = issue.message;
-    }
-    for (const issue of sub.issues) {
-      // Issues phrased about a node by id ("u2" is not complete yet…) also explain that node.
-      for (const n of doc.nodes) if (!out.reasonById[n.id] && issue.message.includes(`"${n.id}"`)) out.reasonById[n.id] = issue.message;
-    }
     if (sub.chain) {
-      const result = analyzeChain(sub.chain);
-      out.result = result;
+      const a = sub.chain.analysis;
+      // A vanishing noise band just below fMax: the engine's noise integration then costs next to nothing.
+      const lite: Chain = { ...sub.chain, analysis: { ...a, noiseLow: a.fMax * (1 - 1e-6), noiseHigh: a.fMax } };
+      out.result = analyzeChain(lite, { freqs: [a.fMin] });
       out.curves = computeCurves(sub.chain);
-      for (const p of result.paths) {
-        out.paths.push(p.nodes);
-        for (const s of p.stages) out.stageById[s.id] ??= s;
-        if (p.adc) out.adcById[p.adc.id] ??= p.adc;
-      }
-      for (const w of result.warnings) (out.warningsByNode[w.nodeId] ??= []).push(w);
     }
   } catch (e) {
-    out.error = e instanceof Error ? e.message : String(e);
+    out.error = errText(e);
   }
   out.ms = performance.now() - t0;
   return out;
+}
+
+/** The complete analysis, noise included. */
+export function fullTier(doc: DraftDoc): FullTier {
+  const t0 = performance.now();
+  try {
+    const sub = completeSubchain(doc);
+    return { result: sub.chain ? analyzeChain(sub.chain) : null, ms: performance.now() - t0, error: null };
+  } catch (e) {
+    return { result: null, ms: performance.now() - t0, error: errText(e) };
+  }
+}
+
+const NODE_PATH = /^nodes\[(\d+)\]/;
+
+/** Index the tiers' results for the workspace. `full` is used only when it belongs to `doc`. */
+export function assembleLive(doc: DraftDoc, rev: number, quick: QuickTier, full: { doc: DraftDoc; tier: FullTier } | null): LiveAnalysis {
+  const fullResult = full && full.doc === doc ? full.tier.result : null;
+  const out: LiveAnalysis = {
+    doc,
+    rev,
+    chain: quick.chain,
+    issues: quick.issues,
+    result: quick.result,
+    full: fullResult,
+    curves: quick.curves,
+    stageById: {},
+    adcById: {},
+    warningsByNode: {},
+    warnings: [],
+    reasonById: {},
+    paths: [],
+    ms: quick.ms,
+    error: quick.error ?? (full && full.doc === doc ? full.tier.error : null),
+  };
+  for (const issue of quick.issues) {
+    const m = NODE_PATH.exec(issue.path);
+    const id = m ? doc.nodes[Number(m[1])]?.id : undefined;
+    if (id && !out.reasonById[id]) out.reasonById[id] = issue.message;
+  }
+  for (const issue of quick.issues) {
+    // Issues about a node by id ("u2" is not complete yet…) explain that node too.
+    for (const n of doc.nodes) if (!out.reasonById[n.id] && issue.message.includes(`"${n.id}"`)) out.reasonById[n.id] = issue.message;
+  }
+  const r = quick.result;
+  if (r) {
+    const fullAdc = new Map<string, AdcResult>();
+    for (const p of fullResult?.paths ?? []) if (p.adc) fullAdc.set(p.adc.id, p.adc);
+    for (const p of r.paths) {
+      out.paths.push(p.nodes);
+      for (const s of p.stages) out.stageById[s.id] ??= s;
+      if (p.adc && !out.adcById[p.adc.id]) {
+        const f = fullAdc.get(p.adc.id);
+        out.adcById[p.adc.id] = { ...p.adc, snrDb: f ? f.snrDb : null, enob: f ? f.enob : null };
+      }
+    }
+    out.warnings = fullResult ? fullResult.warnings : r.warnings;
+    for (const w of out.warnings) (out.warningsByNode[w.nodeId] ??= []).push(w);
+  }
+  return out;
+}
+
+/** Both tiers at once, synchronously (tests, and browsers without workers). */
+export function analyseDraft(doc: DraftDoc, rev = 0): LiveAnalysis {
+  return assembleLive(doc, rev, quickTier(doc), { doc, tier: fullTier(doc) });
 }

@@ -1,21 +1,23 @@
 import { describe, expect, it } from "vitest";
 import Papa from "papaparse";
-import { buildFigure, plotCsv, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
+import { buildFigure, dbPhase, plotCsv, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
 import type { LiveCurves } from "@/lib/store/live-analysis";
 import type { StageResult } from "@/lib/chain/types";
 
 // A hand-made grid: 1 Hz, 10 Hz, 100 Hz, 1 kHz, 10 kHz. u1 is a first-order low-pass with fc = 100 Hz
 // (|H| = 1/√(1+(f/fc)²), phase −atan(f/fc); derived from the first-order formula), the ADC passes it on.
 const f = Float64Array.from([1, 10, 100, 1000, 10000]);
-const lpDb = Float64Array.from(f, (x) => -10 * Math.log10(1 + (x / 100) ** 2));
-const lpPh = Float64Array.from(f, (x) => (-Math.atan(x / 100) * 180) / Math.PI);
+// H = 1/(1 + j·f/fc) = (1 − j·x)/(1 + x²) with x = f/fc
+const lpRe = Float64Array.from(f, (x) => 1 / (1 + (x / 100) ** 2));
+const lpIm = Float64Array.from(f, (x) => -(x / 100) / (1 + (x / 100) ** 2));
+const one = () => new Float64Array(5).fill(1);
 const curves: LiveCurves = {
   f,
   index: { src: 0, u1: 1, adc: 2 },
-  cumDb: [new Float64Array(5), lpDb, lpDb],
-  cumPh: [new Float64Array(5), lpPh, lpPh],
-  indDb: [new Float64Array(5), lpDb, new Float64Array(5)],
-  indPh: [new Float64Array(5), lpPh, new Float64Array(5)],
+  cumRe: [one(), lpRe, lpRe],
+  cumIm: [new Float64Array(5), lpIm, lpIm],
+  indRe: [one(), lpRe, one()],
+  indIm: [new Float64Array(5), lpIm, new Float64Array(5)],
 };
 const u1 = { id: "u1", kind: "lossyIntegrator", dcGain: -1, f0: 100, q: null, dcOut: null, acPeak: null, peakOut: null } as StageResult;
 
@@ -59,6 +61,20 @@ describe("plotMarkers", () => {
   it("leaves out markers outside the plotted range and converter markers on a path without one", () => {
     const m = plotMarkers(input({ sampleRate: null, stages: { u1: { ...u1, f0: 1e6 } } }));
     expect(m.map((x) => x.kind)).toEqual(["band"]);
+  });
+});
+
+describe("dbPhase", () => {
+  it("gives 20·log10|H| and the wrapped phase, +180° for a negative real gain", () => {
+    const r = dbPhase(Float64Array.from([-10, 0, 1]), Float64Array.from([0, 1, -1]));
+    expect(r.db[0]).toBeCloseTo(20, 12);
+    expect(r.ph[0]).toBe(180);
+    expect(r.ph[1]).toBeCloseTo(90, 12);
+    expect(r.db[2]).toBeCloseTo(10 * Math.log10(2), 12);
+    expect(r.ph[2]).toBeCloseTo(-45, 12);
+  });
+  it("marks a zero magnitude as no value rather than −Infinity", () => {
+    expect(Number.isNaN(dbPhase(Float64Array.from([0]), Float64Array.from([0])).db[0])).toBe(true);
   });
 });
 

@@ -24,3 +24,14 @@ describe("TEMPLATES", () => {
     expect(t.make().nodes[0].params.dc).toBe(0);
   });
 });
+
+describe("TEMPLATES as starting points", () => {
+  it("start with every op-amp stage and converter clear of its rails", async () => {
+    const { analyseDraft } = await import("@/lib/store/live-analysis");
+    for (const t of TEMPLATES.filter((x) => x.key !== "blank")) {
+      const live = analyseDraft(t.make());
+      const statuses = [...Object.values(live.stageById).map((s) => s.status), ...Object.values(live.adcById).map((a) => a.status)];
+      expect(statuses.filter(Boolean).every((s) => s === "ok"), `${t.key}: ${statuses.join(",")}`).toBe(true);
+    }
+  });
+});

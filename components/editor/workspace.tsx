@@ -1,0 +1,361 @@
+"use client";
+/**
+ * The chain workspace: shelf, canvas and inspector side by side, with the response, findings and
+ * headroom in a dock under the canvas. It owns the per-chain store, starts the live analysis and the
+ * autosave, and handles the keyboard commands and the conflict choice.
+ */
+import { useCallback, useEffect, useState } from "react";
+import { useRouter } from "next/navigation";
+import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
+import { ReactFlowProvider, useReactFlow } from "@xyflow/react";
+import { Notice } from "@/components/ui/notice";
+import { SafetyCaution } from "@/components/safety-caution";
+import { ResponsePlot } from "@/components/plots/response-plot";
+import { ChecksPanel } from "@/components/checks/checks-panel";
+import { HeadroomTable } from "@/components/checks/headroom-table";
+import { createEditorStore, type EditorStore } from "@/lib/store/editor-store";
+import { EditorProvider, useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/editor-context";
+import { startBrowserAnalysis } from "@/lib/store/analysis-driver";
+import { startAutosave, type Autosave } from "@/lib/store/autosave";
+import { toDraftDoc } from "@/lib/store/draft";
+import { ApiFailure, createChain, fetchChain, saveChain, type ChainDto } from "@/lib/api/client/chains";
+import { ChainCanvas } from "./chain-canvas";
+import { Shelf } from "./shelf";
+import { Inspector } from "./inspector";
+import { SaveIndicator } from "./save-indicator";
+import { commandFor, isTypingTarget, KEY_TABLE, type Command } from "./shortcuts";
+import { LiveProbe } from "./live-probe";
+
+export interface WorkspaceProps {
+  chain: ChainDto;
+}
+
+export function Workspace({ chain }: WorkspaceProps) {
+  const [queryClient] = useState(() => new QueryClient());
+  const [store] = useState<EditorStore>(() =>
+    createEditorStore({ doc: toDraftDoc(chain.document), chainId: chain.id, version: chain.version, readOnly: !chain.actions.includes("edit") }),
+  );
+  return (
+    <QueryClientProvider client={queryClient}>
+      <EditorProvider store={store}>
+        <ReactFlowProvider>
+          <WorkspaceBody role={chain.role} />
+        </ReactFlowProvider>
+      </EditorProvider>
+    </QueryClientProvider>
+  );
+}
+
+type DockTab = "response" | "findings" | "headroom";
+
+function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
+  const store = useEditorStoreApi();
+  const actions = useEditorActions();
+  const rf = useReactFlow();
+  const [autosave, setAutosave] = useState<Autosave | null>(null);
+  const [tab, setTab] = useState<DockTab>("response");
+  const [keysOpen, setKeysOpen] = useState(false);
+
+  useEffect(() => {
+    const driver = startBrowserAnalysis(store);
+    const auto = startAutosave(store, async ({ id, baseVersion, document }) => {
+      const saved = await saveChain({ id, baseVersion, document });
+      return { version: saved.version };
+    });
+    setAutosave(auto);
+    const beforeUnload = (e: BeforeUnloadEvent) => {
+      const s = store.getState().save;
+      if (s === "unsaved" || s === "saving" || s === "conflict" || s === "error") e.preventDefault();
+    };
+    window.addEventListener("beforeunload", beforeUnload);
+    return () => {
+      driver.stop();
+      auto.stop();
+      window.removeEventListener("beforeunload", beforeUnload);
+    };
+  }, [store]);
+
+  const focusNode = useCallback(
+    (id: string) => {
+      void rf.fitView({ nodes: [{ id }], duration: 250, maxZoom: 1, padding: 0.6 });
+    },
+    [rf],
+  );
+
+  const run = useCallback(
+    (cmd: Command) => {
+      switch (cmd.type) {
+        case "undo": return actions.undo();
+        case "redo": return actions.redo();
+        case "delete": return actions.deleteSelection();
+        case "duplicate": return actions.duplicateSelection();
+        case "copy": return void actions.copySelection();
+        case "cut": return actions.cutSelection();
+        case "paste": return actions.paste();
+        case "selectAll": return actions.selectAll();
+        case "deselect": return actions.select([]);
+        case "connect": return void actions.connectSelected();
+        case "save": return void autosave?.flush();
+        case "fit": return void rf.fitView({ duration: 200, maxZoom: 1, padding: 0.12 });
+        case "tidy":
+          actions.tidy();
+          setTimeout(() => void rf.fitView({ duration: 200, maxZoom: 1, padding: 0.12 }), 30);
+          return;
+        case "add": {
+          const s = store.getState();
+          const id = actions.addNode(cmd.kind, undefined, { after: s.selected.length === 1 ? s.selected[0] : undefined });
+          if (id) setTimeout(() => focusNode(id), 30);
+          return;
+        }
+      }
+    },
+    [actions, autosave, rf, store, focusNode],
+  );
+
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => {
+      if (e.defaultPrevented || isTypingTarget(e.target)) return;
+      const cmd = commandFor(e);
+      if (!cmd) return;
+      // Copy stays with the browser when the user has selected text on the page.
+      if (cmd.type === "copy" && window.getSelection()?.toString()) return;
+      e.preventDefault();
+      run(cmd);
+    };
+    document.addEventListener("keydown", onKey);
+    return () => document.removeEventListener("keydown", onKey);
+  }, [run]);
+
+  return (
+    <div data-workspace className="flex h-[calc(100dvh-53px)] min-h-[600px] flex-col bg-paper" data-testid="workspace">
+      <WorkspaceBar role={role} run={run} keysOpen={keysOpen} setKeysOpen={setKeysOpen} />
+      <Banners />
+      <div className="grid min-h-0 flex-1 grid-cols-[176px_minmax(0,1fr)_336px]">
+        <aside className="min-h-0 overflow-y-auto border-r border-paper-rule bg-paper-sunk/40">
+          <Shelf />
+        </aside>
+        <div className="grid min-h-0 grid-rows-[minmax(0,1fr)_300px]">
+          <div className="relative min-h-0">
+            <ChainCanvas />
+            <Notices />
+          </div>
+          <Dock tab={tab} setTab={setTab} focusNode={focusNode} />
+        </div>
+        <aside className="min-h-0 overflow-y-auto border-l border-paper-rule bg-paper-raised" aria-label="Inspector">
+          <Inspector />
+        </aside>
+      </div>
+      <LiveProbe />
+    </div>
+  );
+}
+
+function ToolButton({ label, keys, onClick, disabled }: { label: string; keys?: string; onClick: () => void; disabled?: boolean }) {
+  return (
+    <button
+      type="button"
+      onClick={onClick}
+      disabled={disabled}
+      title={keys ? `${label} (${keys})` : label}
+      className="rounded-card px-2 py-1 text-[12.5px] text-graphite-900 hover:bg-paper-sunk disabled:cursor-not-allowed disabled:text-graphite-300"
+    >
+      {label}
+    </button>
+  );
+}
+
+const ROLE_WORDS: Record<string, string> = { owner: "owner", editor: "editor", reviewer: "reviewer", viewer: "viewer" };
+
+function WorkspaceBar({ role, run, keysOpen, setKeysOpen }: { role: ChainDto["role"]; run: (c: Command) => void; keysOpen: boolean; setKeysOpen: (o: boolean) => void }) {
+  const name = useEditor((s) => s.doc.name);
+  const readOnly = useEditor((s) => s.readOnly);
+  const canUndo = useEditor((s) => s.past.length > 0);
+  const canRedo = useEditor((s) => s.future.length > 0);
+  const hasSel = useEditor((s) => s.selected.length > 0 || s.selectedEdges.length > 0);
+  const counts = useEditor((s) => {
+    const w = s.live?.warnings ?? [];
+    const st = Object.values(s.live?.stageById ?? {}).map((x) => x.status);
+    const ad = Object.values(s.live?.adcById ?? {}).map((x) => x.status);
+    const all = [...st, ...ad];
+    return `${all.filter((x) => x === "clip").length}/${all.filter((x) => x === "tight").length}/${w.length}`;
+  });
+  const [clips, tights] = counts.split("/").map(Number);
+  return (
+    <div className="flex items-center gap-3 border-b border-paper-rule bg-paper-raised px-3 py-1.5">
+      <h1 className="min-w-0 max-w-[22rem] truncate text-[15px] font-semibold text-graphite-950" data-testid="chain-name">
+        {name}
+      </h1>
+      <SaveIndicator />
+      {readOnly && role && <span className="rounded-card border border-paper-rule px-1.5 py-0.5 text-[11.5px] text-graphite-700">you are a {ROLE_WORDS[role] ?? role}: viewing only</span>}
+      <span className="text-[12.5px] text-graphite-700" data-testid="headline">
+        {clips > 0 ? (
+          <span><span aria-hidden className="text-status-clip">■ </span>{clips} {clips === 1 ? "stage hits a rail" : "stages hit a rail"}</span>
+        ) : tights > 0 ? (
+          <span><span aria-hidden className="text-status-tight">▲ </span>{tights} with little margin</span>
+        ) : null}
+      </span>
+      <div className="ml-auto flex items-center gap-0.5" role="toolbar" aria-label="Canvas commands">
+        {!readOnly && (
+          <>
+            <ToolButton label="Undo" keys="Ctrl Z" onClick={() => run({ type: "undo" })} disabled={!canUndo} />
+            <ToolButton label="Redo" keys="Ctrl Shift Z" onClick={() => run({ type: "redo" })} disabled={!canRedo} />
+            <ToolButton label="Duplicate" keys="Ctrl D" onClick={() => run({ type: "duplicate" })} disabled={!hasSel} />
+            <ToolButton label="Delete" keys="Delete" onClick={() => run({ type: "delete" })} disabled={!hasSel} />
+            <ToolButton label="Copy" keys="Ctrl C" onClick={() => run({ type: "copy" })} disabled={!hasSel} />
+            <ToolButton label="Paste" keys="Ctrl V" onClick={() => run({ type: "paste" })} />
+            <ToolButton label="Tidy" keys="T" onClick={() => run({ type: "tidy" })} />
+          </>
+        )}
+        <ToolButton label="Fit" keys="F" onClick={() => run({ type: "fit" })} />
+        <div className="relative">
+          <ToolButton label="Keys" onClick={() => setKeysOpen(!keysOpen)} />
+          {keysOpen && (
+            <div className="absolute right-0 top-8 z-20 w-80 rounded-card border border-paper-rule bg-paper-raised p-3 shadow-card" role="dialog" aria-label="Keyboard commands">
+              <table className="w-full text-[12px]">
+                <tbody>
+                  {KEY_TABLE.map((k) => (
+                    <tr key={k.keys}>
+                      <td className="num whitespace-nowrap py-0.5 pr-2 align-top text-graphite-950">{k.keys}</td>
+                      <td className="py-0.5 text-graphite-700">{k.what}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </div>
+          )}
+        </div>
+      </div>
+    </div>
+  );
+}
+
+function Banners() {
+  const safety = useEditor((s) => s.doc.nodes.find((n) => n.kind === "source")?.params.safety as string | undefined);
+  const conflict = useEditor((s) => s.save === "conflict");
+  return (
+    <>
+      {safety && safety !== "low-voltage" && (
+        <Notice tone="caution" title={safety === "mains-connected" ? "Mains-connected source" : "Source connected to a person"} className="mx-3 mt-2 py-2">
+          <div data-testid="safety-caution">
+            <SafetyCaution />
+          </div>
+        </Notice>
+      )}
+      {conflict && <ConflictBar />}
+    </>
+  );
+}
+
+function ConflictBar() {
+  const store = useEditorStoreApi();
+  const actions = useEditorActions();
+  const router = useRouter();
+  const serverVersion = useEditor((s) => s.conflict?.serverVersion);
+  const [busy, setBusy] = useState<null | "reload" | "copy">(null);
+  const [problem, setProblem] = useState<string | null>(null);
+  const reload = async () => {
+    setBusy("reload");
+    setProblem(null);
+    try {
+      const c = await fetchChain(store.getState().chainId!);
+      actions.loadDoc(toDraftDoc(c.document), c.version);
+    } catch (e) {
+      setProblem(e instanceof ApiFailure ? e.message : String(e));
+    } finally {
+      setBusy(null);
+    }
+  };
+  const keepCopy = async () => {
+    setBusy("copy");
+    setProblem(null);
+    try {
+      const doc = store.getState().doc;
+      const name = `${doc.name} (my copy)`.slice(0, 200);
+      const c = await createChain({ name, document: { ...doc, name } });
+      actions.switchChain(c.id, c.version, toDraftDoc(c.document ?? { ...doc, name }));
+      router.replace(`/chains/${c.id}`);
+    } catch (e) {
+      setProblem(e instanceof ApiFailure ? e.message : String(e));
+    } finally {
+      setBusy(null);
+    }
+  };
+  return (
+    <Notice tone="problem" title="Someone else saved this chain" className="mx-3 mt-2 py-2">
+      <div className="flex flex-wrap items-center gap-3" data-testid="conflict">
+        <span>
+          The chain is now at version {serverVersion ?? "?"}, newer than the one your edits started from. Your edits are kept here but
+          not saved. Take their version, or keep yours as a new chain.
+        </span>
+        <span className="flex gap-2">
+          <button type="button" onClick={reload} disabled={busy !== null} className="rounded-card border border-paper-rule bg-paper-raised px-2.5 py-1 text-[12.5px] font-medium hover:bg-paper-sunk">
+            {busy === "reload" ? "Loading…" : "Load their version"}
+          </button>
+          <button type="button" onClick={keepCopy} disabled={busy !== null} className="rounded-card bg-accent-700 px-2.5 py-1 text-[12.5px] font-medium text-white hover:bg-accent-800">
+            {busy === "copy" ? "Saving a copy…" : "Keep mine as a copy"}
+          </button>
+        </span>
+        {problem && <span className="text-status-clip">■ {problem}</span>}
+      </div>
+    </Notice>
+  );
+}
+
+function Notices() {
+  const notice = useEditor((s) => s.notice);
+  const actions = useEditorActions();
+  useEffect(() => {
+    if (!notice) return;
+    const t = setTimeout(() => actions.setNotice(null), 4000);
+    return () => clearTimeout(t);
+  }, [notice, actions]);
+  if (!notice) return null;
+  return (
+    <div role="status" className="absolute left-1/2 top-3 z-10 -translate-x-1/2 rounded-card border border-paper-rule bg-paper-raised px-3 py-1.5 text-[12.5px] text-graphite-900 shadow-card" data-testid="notice">
+      {notice}
+    </div>
+  );
+}
+
+function Dock({ tab, setTab, focusNode }: { tab: DockTab; setTab: (t: DockTab) => void; focusNode: (id: string) => void }) {
+  const findings = useEditor((s) => s.live?.warnings.length ?? 0);
+  const tabs: { id: DockTab; label: string }[] = [
+    { id: "response", label: "Response" },
+    { id: "findings", label: `Findings${findings ? ` (${findings})` : ""}` },
+    { id: "headroom", label: "Headroom" },
+  ];
+  return (
+    <section className="flex min-h-0 flex-col border-t border-paper-rule bg-paper-raised">
+      <div role="tablist" aria-label="Analysis views" className="flex gap-0.5 border-b border-paper-rule px-2 pt-1">
+        {tabs.map((t) => (
+          <button
+            key={t.id}
+            role="tab"
+            type="button"
+            id={`dock-tab-${t.id}`}
+            aria-selected={tab === t.id}
+            aria-controls={`dock-panel-${t.id}`}
+            onClick={() => setTab(t.id)}
+            className={`rounded-t-card px-3 py-1 text-[12.5px] ${tab === t.id ? "border border-b-0 border-paper-rule bg-paper-raised font-medium text-graphite-950" : "text-graphite-500 hover:text-graphite-900"}`}
+          >
+            {t.label}
+          </button>
+        ))}
+      </div>
+      {/* The plot stays mounted while hidden so switching tabs does not reload or redraw it. */}
+      <div id="dock-panel-response" role="tabpanel" aria-labelledby="dock-tab-response" hidden={tab !== "response"} className="min-h-0 flex-1">
+        <ResponsePlot />
+      </div>
+      {tab === "findings" && (
+        <div id="dock-panel-findings" role="tabpanel" aria-labelledby="dock-tab-findings" className="min-h-0 flex-1">
+          <ChecksPanel onFocusNode={focusNode} />
+        </div>
+      )}
+      {tab === "headroom" && (
+        <div id="dock-panel-headroom" role="tabpanel" aria-labelledby="dock-tab-headroom" className="min-h-0 flex-1">
+          <HeadroomTable onFocusNode={focusNode} />
+        </div>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,63 @@
+import { describe, expect, it, vi } from "vitest";
+import { inlineRunner, sameAnalysisInput, startAnalysis, type TierRunner } from "@/lib/store/analysis-driver";
+import { createEditorStore } from "@/lib/store/editor-store";
+import { findTemplate } from "@/lib/templates";
+import type { AnalysisRequest } from "@/lib/store/analysis-protocol";
+
+const settle = () => new Promise((r) => setTimeout(r, 0));
+
+function counting(): TierRunner & { calls: AnalysisRequest[] } {
+  const inner = inlineRunner();
+  const calls: AnalysisRequest[] = [];
+  return { calls, run: (req) => (calls.push(req), inner.run(req)), dispose() {} };
+}
+
+describe("startAnalysis", () => {
+  it("analyses the opening draft and every edit, then fills in the full analysis after a pause", async () => {
+    const store = createEditorStore({ doc: findTemplate("ballast-bridge")!.make(), chainId: "c" });
+    const quick = counting();
+    const full = counting();
+    const driver = startAnalysis(store, { quick, full }, { fullDelayMs: 20 });
+    await vi.waitFor(() => expect(store.getState().live?.stageById.u1).toBeDefined());
+    expect(store.getState().live!.adcById.adc1.snrDb).toBeNull();
+    await vi.waitFor(() => expect(store.getState().live!.adcById.adc1.snrDb).not.toBeNull());
+    store.getState().actions.setParam("u1", "rf", 150e3);
+    await vi.waitFor(() => expect(store.getState().live!.doc).toBe(store.getState().doc));
+    expect(store.getState().live!.stageById.u1.dcGain).toBeCloseTo(151, 0); // 1 + rf/rg, finite aol shaves a little
+    driver.stop();
+  });
+
+  it("keeps one quick request in flight and only the latest edit waiting", async () => {
+    const store = createEditorStore({ doc: findTemplate("ballast-bridge")!.make(), chainId: "c" });
+    const quick = counting();
+    const driver = startAnalysis(store, { quick, full: counting() }, { fullDelayMs: 10_000 });
+    const a = store.getState().actions;
+    for (const rf of [20e3, 30e3, 40e3, 50e3]) a.setParam("u1", "rf", rf);
+    await vi.waitFor(() => expect(store.getState().live?.doc).toBe(store.getState().doc));
+    // the opening draft, then only the last of the four edits
+    expect(quick.calls).toHaveLength(2);
+    expect(quick.calls[1].doc.nodes[1].params.rf).toBe(50e3);
+    driver.stop();
+  });
+
+  it("asks nothing when only positions change", async () => {
+    const store = createEditorStore({ doc: findTemplate("ballast-bridge")!.make(), chainId: "c" });
+    const quick = counting();
+    const driver = startAnalysis(store, { quick, full: counting() }, { fullDelayMs: 10_000 });
+    await settle();
+    store.getState().actions.moveNodes({ u1: { x: 500, y: 500 } }, true);
+    await settle();
+    expect(quick.calls).toHaveLength(1);
+    driver.stop();
+  });
+});
+
+describe("sameAnalysisInput", () => {
+  it("ignores positions and notices params", () => {
+    const d = findTemplate("ballast-bridge")!.make();
+    const moved = { ...d, nodes: d.nodes.map((n, i) => (i === 1 ? { ...n, position: { x: 1, y: 2 } } : n)) };
+    expect(sameAnalysisInput(d, moved)).toBe(true);
+    const edited = { ...d, nodes: d.nodes.map((n, i) => (i === 1 ? { ...n, params: { ...n.params, rf: 1 } } : n)) };
+    expect(sameAnalysisInput(d, edited)).toBe(false);
+  });
+});

@@ -1,0 +1,73 @@
+import { describe, expect, it } from "vitest";
+import { analyseDraft, assembleLive, fullTier, quickTier } from "@/lib/store/live-analysis";
+import { dbPhase } from "@/components/plots/plot-data";
+import { findTemplate, TEMPLATES } from "@/lib/templates";
+import { analyzeChain } from "@/lib/engine";
+import { validateChain } from "@/lib/chain/schema";
+import type { DraftDoc } from "@/lib/store/draft";
+
+const bridge = () => findTemplate("ballast-bridge")!.make();
+
+describe("quickTier", () => {
+  for (const t of TEMPLATES.filter((x) => x.key !== "blank")) {
+    it(`${t.key}: gives the same headroom, status and warnings as the full analysis`, () => {
+      const doc = t.make();
+      const q = quickTier(doc);
+      const full = fullTier(doc).result!;
+      expect(q.error).toBeNull();
+      const strip = (r: typeof full) => r.paths.map((p) => ({ nodes: p.nodes, stages: p.stages, adc: p.adc && { ...p.adc, snrDb: 0, enob: 0 } }));
+      expect(strip(q.result!)).toEqual(strip(full));
+      expect(q.result!.warnings.filter((w) => w.code !== "noise-band")).toEqual(full.warnings.filter((w) => w.code !== "noise-band"));
+    });
+  }
+
+  it("draws curves whose cascade to the ADC is the engine's own path response", () => {
+    const doc = bridge();
+    const q = quickTier(doc);
+    const chain = validateChain(doc);
+    if (!chain.ok) throw new Error("template invalid");
+    const ref = analyzeChain(chain.chain).paths[0].response;
+    const c = q.curves!;
+    const { db, ph } = dbPhase(c.cumRe[c.index.adc1], c.cumIm[c.index.adc1]);
+    expect(c.f.length).toBe(ref.f.length);
+    for (let k = 0; k < ref.f.length; k += 37) {
+      expect(c.f[k]).toBeCloseTo(ref.f[k], 6);
+      expect(db[k]).toBeCloseTo(ref.magDb[k]!, 6);
+      expect(Math.abs(((ph[k] - ref.phaseDeg[k]! + 540) % 360) - 180)).toBeLessThan(1e-6);
+    }
+  });
+
+  it("analyses the complete part of a half-drawn chain and says why the rest waits", () => {
+    const doc: DraftDoc = bridge();
+    delete doc.nodes[2].params.c2; // u2 loses its capacitor
+    const live = analyseDraft(doc);
+    expect(live.stageById.u1).toBeDefined();
+    expect(live.stageById.u2).toBeUndefined();
+    expect(live.reasonById.u2).toMatch(/c2/);
+    expect(live.reasonById.adc1).toBeTruthy();
+  });
+});
+
+describe("assembleLive", () => {
+  it("holds back SNR and ENOB until the full analysis of the same draft is in", () => {
+    const doc = bridge();
+    const q = quickTier(doc);
+    const early = assembleLive(doc, 1, q, null);
+    expect(early.adcById.adc1.snrDb).toBeNull();
+    expect(early.adcById.adc1.enob).toBeNull();
+    const stale = assembleLive(doc, 1, q, { doc: bridge(), tier: fullTier(doc) });
+    expect(stale.adcById.adc1.snrDb).toBeNull();
+    const ready = assembleLive(doc, 1, q, { doc, tier: fullTier(doc) });
+    expect(ready.adcById.adc1.snrDb).toBeGreaterThan(40);
+    expect(ready.adcById.adc1.enob).toBeGreaterThan(6);
+  });
+
+  it("flags the clipping stage of a chain with a large DC gain", () => {
+    const doc = bridge();
+    doc.nodes[1].params.rf = 1e6; // gain 1001 on a 2 mV ± 3 mV bridge offset: about 2 to 5 V at DC, on ±12 V
+    doc.nodes[2].params.r2 = 100e3; // then ×10: well past the rails
+    const live = analyseDraft(doc);
+    expect(live.stageById.u2.status).toBe("clip");
+    expect(live.warningsByNode.u2.some((w) => w.code === "rail-clip")).toBe(true);
+  });
+});
