@@ -39,6 +39,7 @@ interface Segment {
 
 interface RefNetwork {
   segments: Segment[];
+  prepared: PreparedSegment[];
   /** segment index by the name of its root */
   byRoot: Map<string, number>;
   /** for each segment, the roots of the segments it drives */
@@ -163,7 +164,8 @@ function buildNetwork(chain: Chain): RefNetwork {
     }
   }
   const childRoots = segments.map((s) => s.elements.filter((e) => e.t === "OA").map((e) => (e as { o: string }).o));
-  return { segments, byRoot, childRoots, dcKnown, outPoint, plusPoint, inPoint, sourceId: src.id, sourceIsEmf };
+  const prepared = segments.map((s) => prepareSegment(s, dcKnown));
+  return { segments, prepared, byRoot, childRoots, dcKnown, outPoint, plusPoint, inPoint, sourceId: src.id, sourceIsEmf };
 }
 
 /** 1/A(s) of the single-pole model, or null for an infinite gain; A itself for the zero-gain case. */
@@ -215,43 +217,48 @@ function solveLinear(A: Complex[][], b: Complex[]): Complex[] | null {
   return x;
 }
 
-/**
- * Solves one segment at s with its root at `rootV`, known nodes from `known`, and the excitation.
- * Returns the voltage of every node of the segment (root included), or null if the system is singular.
- */
-function solveSegment(
-  seg: Segment,
-  s: Complex,
-  rootV: Complex,
-  known: (node: string) => Complex | undefined,
-  ex: Excitation | null,
-): Map<string, Complex> | null {
-  const fixed = new Map<string, Complex>([[GROUND, new Complex(0, 0)], [seg.root, rootV]]);
-  const isFixed = (x: string) => fixed.has(x) || known(x) !== undefined;
-  const value = (x: string) => fixed.get(x) ?? known(x)!;
+/** A segment's unknowns, indexed once per chain (the per-frequency work is stamping and solving). */
+interface PreparedSegment {
+  seg: Segment;
+  unknowns: string[];
+  idx: Map<string, number>;
+  /** rows of op-amp outputs: their KCL is replaced by the op-amp constraint */
+  opRows: Set<number>;
+}
+
+function prepareSegment(seg: Segment, dcKnown: Map<string, number>): PreparedSegment {
   const unknowns: string[] = [];
   const idx = new Map<string, number>();
   const note = (x: string) => {
-    if (!isFixed(x) && !idx.has(x)) {
-      idx.set(x, unknowns.length);
-      unknowns.push(x);
-    }
+    if (x === GROUND || x === seg.root || dcKnown.has(x) || idx.has(x)) return;
+    idx.set(x, unknowns.length);
+    unknowns.push(x);
   };
   for (const e of seg.elements) {
-    if (e.t === "OA") {
-      note(e.p);
-      note(e.m);
-      note(e.o);
-    } else {
-      note(e.a);
-      note(e.b);
-    }
+    if (e.t === "OA") [e.p, e.m, e.o].forEach(note);
+    else [e.a, e.b].forEach(note);
   }
-  const k = unknowns.length;
-  const A: Complex[][] = Array.from({ length: k }, () => Array.from({ length: k }, () => new Complex(0, 0)));
-  const J: Complex[] = Array.from({ length: k }, () => new Complex(0, 0));
   const opRows = new Set<number>();
   for (const e of seg.elements) if (e.t === "OA" && idx.has(e.o)) opRows.add(idx.get(e.o)!);
+  return { seg, unknowns, idx, opRows };
+}
+
+/**
+ * Solves one segment at s with its root at `rootV`, the reference nodes at `known`, and the excitation.
+ * Returns the voltages of its unknown nodes (in `unknowns` order), or null if the system is singular.
+ */
+function solveSegment(
+  ps: PreparedSegment,
+  s: Complex,
+  rootV: Complex,
+  known: (node: string) => Complex,
+  ex: Excitation | null,
+): Complex[] | null {
+  const { seg, idx, opRows } = ps;
+  const k = ps.unknowns.length;
+  const value = (x: string) => (x === seg.root ? rootV : x === GROUND ? new Complex(0, 0) : known(x));
+  const A: Complex[][] = Array.from({ length: k }, () => Array.from({ length: k }, () => new Complex(0, 0)));
+  const J: Complex[] = Array.from({ length: k }, () => new Complex(0, 0));
 
   // admittance y between a and b
   const stamp = (a: string, b: string, y: Complex) => {
@@ -298,25 +305,16 @@ function solveSegment(
       if (i !== undefined) A[row][i] = A[row][i].add(coef);
       else J[row] = J[row].sub(coef.mul(value(x)));
     };
-    if (inv === null || !a.isFinite()) {
-      if (inv === null) put(e.o, new Complex(1, 0));
-      else {
-        put(e.p, new Complex(-1, 0));
-        put(e.m, new Complex(1, 0));
-        J[row] = J[row].add(en);
-      }
-    } else {
-      put(e.o, inv);
-      put(e.p, new Complex(-1, 0));
-      put(e.m, new Complex(1, 0));
-      J[row] = J[row].add(en);
+    if (inv === null) {
+      put(e.o, new Complex(1, 0));
+      continue;
     }
+    if (a.isFinite()) put(e.o, inv);
+    put(e.p, new Complex(-1, 0));
+    put(e.m, new Complex(1, 0));
+    J[row] = J[row].add(en);
   }
-  const x = solveLinear(A, J);
-  if (!x) return null;
-  const out = new Map<string, Complex>(fixed);
-  unknowns.forEach((u, i) => out.set(u, x[i]));
-  return out;
+  return solveLinear(A, J);
 }
 
 export interface ReferenceSolution {
@@ -327,22 +325,22 @@ export interface ReferenceSolution {
 
 function solveAll(net: RefNetwork, fHz: number, ex: Excitation, dcValues: boolean): ReferenceSolution {
   const s = new Complex(0, 2 * Math.PI * fHz);
-  const known = (x: string): Complex | undefined => {
-    if (!net.dcKnown.has(x)) return undefined;
+  const known = (x: string): Complex => {
     if (ex.t === "known" && ex.node === x) return new Complex(1, 0);
-    return new Complex(dcValues ? net.dcKnown.get(x)! : 0, 0);
+    return new Complex(dcValues ? (net.dcKnown.get(x) ?? 0) : 0, 0);
   };
   const voltages = new Map<string, Complex>();
   let singular = false;
   const visit = (segIdx: number, rootV: Complex) => {
-    const seg = net.segments[segIdx];
-    const v = solveSegment(seg, s, rootV, known, ex);
-    if (!v) {
+    const ps = net.prepared[segIdx];
+    voltages.set(ps.seg.root, rootV);
+    const x = solveSegment(ps, s, rootV, known, ex);
+    if (!x) {
       singular = true;
       return;
     }
-    for (const [k, val] of v) voltages.set(k, val);
-    for (const r of net.childRoots[segIdx]) visit(net.byRoot.get(r)!, v.get(r)!);
+    ps.unknowns.forEach((u, i) => voltages.set(u, x[i]));
+    for (const r of net.childRoots[segIdx]) visit(net.byRoot.get(r)!, voltages.get(r)!);
   };
   visit(0, new Complex(ex.t === "emf" ? 1 : 0, 0));
   return { voltages, singular };

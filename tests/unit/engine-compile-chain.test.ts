@@ -6,7 +6,7 @@ import Complex from "complex.js";
 import { describe, expect, it } from "vitest";
 import { compileChain, referenceResponse, referenceTransfer } from "@/lib/engine";
 import type { Chain, ChainNode, Part } from "@/lib/chain/types";
-import { adc, chainOf, line, randomChain, rails, source, testParts } from "./engine-fixtures";
+import { adc, chainOf, line, randomChain, rails, source } from "./engine-fixtures";
 
 const TAU = 2 * Math.PI;
 
@@ -381,9 +381,5 @@ describe("compileChain", () => {
       const other = randomChain("shape-2", 5);
       expect(() => cc.retune(other)).toThrow(/retune/);
     });
-  });
-
-  it("keeps testParts' four open-loop forms in play", () => {
-    expect(Object.keys(testParts).length).toBe(4);
   });
 });

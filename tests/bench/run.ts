@@ -1,0 +1,107 @@
+/**
+ * `npm run bench`: the fast path against the complex.js per-point path, side by side in one run.
+ *
+ *  1. One 10-stage chain of mixed kinds (two loaded RC sections, Sallen-Key and MFB sections, gain stages
+ *     and a lossy integrator, every op-amp with a finite-GBW part) at 2,000 log-spaced points.
+ *  2. 1,000 Monte-Carlo-style re-evaluations: every R and C drawn within its tolerance (seeded), each
+ *     draw evaluated at the same 2,000 points. The fast path reloads values into one compiled chain
+ *     (`retune`) and sweeps; the complex.js path prepares each draw's network and solves it per point.
+ *
+ * Rates are stage-points per second (stages × points / time) from the MEDIAN time per sweep or per draw,
+ * the same statistic for both paths, so that a busy machine's spikes do not decide the ratio; the mean
+ * and the total are printed too. Both paths are warmed up first.
+ * Options: --draws N (default 1000), --ref-draws N (complex.js draws, default 50: at a few hundred ms per
+ * draw the full 1,000 take minutes; pass --ref-draws 1000 for all), --points N (default 2000).
+ */
+import { compileChain, referenceResponse } from "@/lib/engine";
+import { logGrid } from "@/lib/engine/grids";
+import { benchChain, perturbed, stageCount } from "./chains";
+
+const arg = (name: string, fallback: number) => {
+  const i = process.argv.indexOf(`--${name}`);
+  return i >= 0 ? Number(process.argv[i + 1]) : fallback;
+};
+const points = arg("points", 2000);
+const draws = arg("draws", 1000);
+const refDraws = Math.min(draws, arg("ref-draws", 50));
+
+const chain = benchChain();
+const stages = stageCount(chain);
+const grid = logGrid(chain.analysis.fMin, chain.analysis.fMax, points);
+const gridList = Array.from(grid);
+
+/** Times each call of fn; returns the per-call times in ms. */
+function times(n: number, fn: (i: number) => void): number[] {
+  const out: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const t = performance.now();
+    fn(i);
+    out.push(performance.now() - t);
+  }
+  return out;
+}
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / xs.length;
+const rate = (msPerRun: number) => (stages * points) / (msPerRun / 1000);
+const fmt = (x: number) => (x >= 1e6 ? `${(x / 1e6).toFixed(1)} M` : `${(x / 1e3).toFixed(1)} k`);
+const row = (name: string, t: number[]) =>
+  `   ${name.padEnd(12)} median ${median(t).toFixed(3).padStart(9)} ms   ${fmt(rate(median(t))).padStart(8)}stage-points/s` +
+  `   (mean ${mean(t).toFixed(3)} ms, ${t.length} runs, ${(t.reduce((a, b) => a + b, 0) / 1000).toFixed(2)} s in all)`;
+
+// ---- warm-up of both paths, so neither pays for the JIT in its timed runs
+const cc = compileChain(chain);
+let out = cc.sweep(grid);
+for (const c of perturbed(chain, 400, "warm-up")) {
+  cc.retune(c);
+  out = cc.sweep(grid, out);
+}
+cc.retune(chain);
+for (const c of perturbed(chain, 3, "warm-up")) referenceResponse(c, gridList.slice(0, 300));
+
+console.log(`chain: ${stages} stages (${chain.nodes.map((n) => n.kind).join(" → ")}), ${points} points`);
+console.log("");
+
+// ---- 1. one chain
+const fast1 = times(400, () => (out = cc.sweep(grid, out)));
+const ref1 = times(5, () => referenceResponse(chain, gridList));
+const ratio1 = median(ref1) / median(fast1);
+console.log("1. one sweep of the chain");
+console.log(row("fast path", fast1));
+console.log(row("complex.js", ref1));
+console.log(`   ratio        ${ratio1.toFixed(0)}×`);
+console.log("");
+
+// ---- 2. Monte Carlo re-evaluations
+const chains = perturbed(chain, draws);
+const e = cc.nodeIds.indexOf("adc");
+const fast2 = times(draws, (d) => {
+  cc.retune(chains[d]);
+  out = cc.sweep(grid, out);
+});
+const refEnd: number[][] = [];
+const ref2 = times(refDraws, (d) => refEnd.push(referenceResponse(chains[d], gridList).get("adc")!.cum.map((c) => c!.abs())));
+const ratio2 = median(ref2) / median(fast2);
+// outside the timed runs: how far apart the two paths are on the draws both evaluated
+let worst = 0;
+refEnd.forEach((ref, d) => {
+  cc.retune(chains[d]);
+  out = cc.sweep(grid, out);
+  ref.forEach((m, k) => (worst = Math.max(worst, Math.abs(Math.hypot(out.cumRe[e][k], out.cumIm[e][k]) / m - 1))));
+});
+console.log(`2. Monte Carlo: ${draws} draws, each retuned and swept (complex.js path on the first ${refDraws})`);
+console.log(row("fast path", fast2));
+console.log(row("complex.js", ref2));
+console.log(`   ratio        ${ratio2.toFixed(0)}×`);
+console.log(`   largest relative difference of |H| at the ADC between the paths: ${worst.toExponential(2)}`);
+console.log("");
+
+const targetRate = 30e6;
+const okRate = rate(median(fast1)) >= targetRate && rate(median(fast2)) >= targetRate;
+const okRatio = ratio1 >= 15 && ratio2 >= 15;
+console.log(
+  `targets: fast ≥ 30 M stage-points/s (${stages} × ${points} in < ${(((stages * points) / targetRate) * 1000).toFixed(2)} ms): ` +
+    `${okRate ? "met" : "NOT met"}; fast ≥ 15× complex.js: ${okRatio ? "met" : "NOT met"}`,
+);
