@@ -50,6 +50,12 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
     expect(text).toContain("Turbidity photodiode channel");
     expect(text).toContain("Hits a rail"); // the ballast chain clips at DC
     await expect(page.getByTestId("signed-in-as").textContent()).resolves.toContain(DEMO_PEOPLE.engineerA.email);
+    // numbers are set in the shipped Geist Mono (next/font/local), not a system fallback
+    const loaded = await page.evaluate(async () => {
+      await document.fonts.ready;
+      return [...document.fonts].filter((f) => f.status === "loaded").map((f) => f.family.replace(/"/g, ""));
+    });
+    expect(loaded).toEqual(expect.arrayContaining(["geistMono", "geistSans"]));
     await screenshot(page, "workspace-chains-engineer");
     await signOut(page);
     await page.goto("/chains");
