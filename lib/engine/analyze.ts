@@ -184,8 +184,13 @@ export function analyzeChain(chain: Chain, opts: AnalyzeOptions = {}): AnalysisR
 
   // ---- response on the plot grid (or exactly the requested frequencies)
   const points = opts.points ?? chain.analysis.points;
-  const freqs = opts.freqs ? Float64Array.from(opts.freqs) : logGrid(fMin, fMax, points);
-  const usable = freqs.map((f) => (Number.isFinite(f) && f >= 0 ? f : 0));
+  // requested frequencies that are not numbers cannot be echoed (no NaN in a result): left out, with a
+  // warning; negative ones stay, with null values
+  const requested = opts.freqs?.filter((f) => Number.isFinite(f));
+  if (opts.freqs && requested!.length < opts.freqs.length)
+    W.add(src.id, "bad-frequency", `${opts.freqs.length - requested!.length} requested frequencies were not finite numbers and are left out of the response.`);
+  const freqs = requested ? Float64Array.from(requested) : logGrid(fMin, fMax, points);
+  const usable = freqs.map((f) => (f >= 0 ? f : 0));
   const resp = cc.sweep(usable);
 
   // ---- DC operating point and band figures
@@ -308,7 +313,7 @@ export function analyzeChain(chain: Chain, opts: AnalyzeOptions = {}): AnalysisR
     const endNode = nodes[end];
     const mp = toMagnitudePhase(resp.cumRe[end], resp.cumIm[end]);
     const f = Array.from(freqs);
-    const bad = (k: number) => !(Number.isFinite(freqs[k]) && freqs[k] >= 0) || Number.isNaN(mp.magDb[k]);
+    const bad = (k: number) => freqs[k] < 0 || Number.isNaN(mp.magDb[k]);
     const magDb = f.map((_, k) => (bad(k) ? null : mp.magDb[k]));
     const phaseDeg = f.map((_, k) => (bad(k) ? null : mp.phaseDeg[k]));
     const poles = magDb.filter((v) => v === null).length;

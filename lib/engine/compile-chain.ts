@@ -24,7 +24,7 @@
 import type { Chain, ChainNode, NodeKind, OpAmpNode } from "../chain/types";
 import { TWO_PI } from "./constants";
 import { openLoop, type OpenLoop } from "./open-loop";
-import { limitAtZero, ratioAt } from "./poly";
+import { limitAtZero } from "./poly";
 import { stageModel, type InternalSourceType, type StageModel } from "./stage-models";
 import { buildTopology, isOpAmpKind, type Topology } from "./topology";
 
@@ -163,8 +163,24 @@ class FastChain implements CompiledChain {
   private readonly Zi: Float64Array;
   /** per op-amp node: [vo re, vo im, iin re, iin im, p re, p im] per internal source */
   private readonly srcVals: (Float64Array | null)[];
+  /**
+   * per op-amp node, for the single-frequency state: den, then V+/Vin and each source's vo, iin, p as
+   * flat coefficients with [start, end) offsets, and the value of each at s → 0
+   */
+  private readonly stagePolys: ({ den: Float64Array; coef: Float64Array; off: Int32Array; lim: Float64Array } | null)[];
   private readonly one: { W: Float64Array; Hr: Float64Array[]; Hi: Float64Array[]; Yr: Float64Array[]; Yi: Float64Array[] };
   private readonly levelOf: Int32Array; // per driver point, during transfersTo
+  /** per level of transfersTo: driver, exit point and the W, Gx, Gd transfers */
+  private readonly lv: {
+    drivers: Int32Array;
+    exits: Int32Array;
+    Wr: Float64Array;
+    Wi: Float64Array;
+    Gxr: Float64Array;
+    Gxi: Float64Array;
+    Gdr: Float64Array;
+    Gdi: Float64Array;
+  };
   private readonly stack: Int32Array;
 
   constructor(chain: Chain) {
@@ -189,6 +205,7 @@ class FastChain implements CompiledChain {
     this.models = new Array(n).fill(null);
     this.openLoops = new Array(n).fill(null);
     this.srcVals = new Array(n).fill(null);
+    this.stagePolys = new Array(n).fill(null);
     this.integrators = [];
     this.valA = new Float64Array(n);
     this.valB = new Float64Array(n);
@@ -267,6 +284,16 @@ class FastChain implements CompiledChain {
     this.Zi = zeros();
     this.levelOf = new Int32Array(n + 1).fill(-1);
     this.stack = new Int32Array(n + 1);
+    this.lv = {
+      drivers: new Int32Array(n + 1),
+      exits: new Int32Array(n + 1),
+      Wr: zeros(),
+      Wi: zeros(),
+      Gxr: zeros(),
+      Gxi: zeros(),
+      Gdr: zeros(),
+      Gdi: zeros(),
+    };
     const ones = () => Array.from({ length: n }, () => new Float64Array(1));
     this.one = { W: new Float64Array(1), Hr: ones(), Hi: ones(), Yr: ones(), Yi: ones() };
   }
@@ -335,6 +362,17 @@ class FastChain implements CompiledChain {
           });
           this.limH[i] = limitAtZero(model.vin.vo, model.den);
           this.limY[i] = limitAtZero(model.vin.iin, model.den);
+          const list = [model.vin.p, ...model.sources.flatMap((x) => [x.vo, x.iin, x.p])];
+          const off = new Int32Array(2 * list.length);
+          const coef = new Float64Array(list.reduce((t, x) => t + x.length, 0));
+          let at = 0;
+          list.forEach((x, j) => {
+            coef.set(x, at);
+            off[2 * j] = at;
+            at += x.length;
+            off[2 * j + 1] = at;
+          });
+          this.stagePolys[i] = { den: model.den, coef, off, lim: Float64Array.from(list, (x) => limitAtZero(x, model.den)) };
           q++;
         }
       }
@@ -471,7 +509,7 @@ class FastChain implements CompiledChain {
     const one = this.one;
     one.W[0] = w;
     this.kernel(one.W, 1, one.Hr, one.Hi, one.Yr, one.Yi, operatingPoint);
-    const { role, Hr, Hi, Yr, Yi, Pr, Pi, Gr, Gi, Sr, Si, YLr, YLi, valA, valB } = this;
+    const { role, Hr, Hi, Yr, Yi, Gr, Gi, Sr, Si, YLr, YLi, valA, valB } = this;
     for (let i = 0; i < n; i++) {
       Hr[i] = one.Hr[i][0];
       Hi[i] = one.Hi[i][0];
@@ -498,16 +536,57 @@ class FastChain implements CompiledChain {
       YLr[i] = lr;
       YLi[i] = li;
     }
-    for (const i of this.opIdx) {
-      const m = this.models[i]!;
-      const dropVo = operatingPoint && m.kind === "integrator";
-      [Pr[i], Pi[i]] = ratioAt(m.vin.p, m.den, w);
-      const v = this.srcVals[i]!;
-      m.sources.forEach((s, j) => {
-        [v[6 * j], v[6 * j + 1]] = dropVo ? [0, 0] : ratioAt(s.vo, m.den, w);
-        [v[6 * j + 2], v[6 * j + 3]] = ratioAt(s.iin, m.den, w);
-        [v[6 * j + 4], v[6 * j + 5]] = ratioAt(s.p, m.den, w);
-      });
+    for (const i of this.opIdx) this.evaluateSources(i, w, operatingPoint && this.kinds[i] === "integrator");
+  }
+
+  /**
+   * V+/Vin and the internal sources of op-amp stage i at ω into Pr/Pi and srcVals (no allocation).
+   * `dropVo` leaves the sources' direct output terms at 0 (an integrator at the DC operating point).
+   */
+  private evaluateSources(i: number, w: number, dropVo: boolean): void {
+    const sp = this.stagePolys[i]!;
+    const v = this.srcVals[i]!;
+    const cnt = sp.lim.length;
+    if (w === 0) {
+      this.Pr[i] = sp.lim[0];
+      this.Pi[i] = 0;
+      for (let j = 1; j < cnt; j++) {
+        v[2 * (j - 1)] = dropVo && (j - 1) % 3 === 0 ? 0 : sp.lim[j];
+        v[2 * (j - 1) + 1] = 0;
+      }
+      return;
+    }
+    const den = sp.den;
+    let dr = den[den.length - 1];
+    let di = 0;
+    for (let k = den.length - 2; k >= 0; k--) {
+      const t = den[k] - di * w;
+      di = dr * w;
+      dr = t;
+    }
+    const inv = 1 / (dr * dr + di * di);
+    const { coef, off } = sp;
+    for (let j = 0; j < cnt; j++) {
+      const a = off[2 * j];
+      const b = off[2 * j + 1];
+      let re = coef[b - 1];
+      let im = 0;
+      for (let k = b - 2; k >= a; k--) {
+        const t = coef[k] - im * w;
+        im = re * w;
+        re = t;
+      }
+      const xr = (re * dr + im * di) * inv;
+      const xi = (im * dr - re * di) * inv;
+      if (j === 0) {
+        this.Pr[i] = xr;
+        this.Pi[i] = xi;
+      } else if (dropVo && (j - 1) % 3 === 0) {
+        v[2 * (j - 1)] = v[2 * (j - 1) + 1] = 0;
+      } else {
+        v[2 * (j - 1)] = xr;
+        v[2 * (j - 1) + 1] = xi;
+      }
     }
   }
 
@@ -558,7 +637,7 @@ class FastChain implements CompiledChain {
 
   /** Voltages in the net of point x for a unit current injected at x (transfer impedances Z(·, x)). */
   private spread(x: number): void {
-    const { Zr, Zi, isDriver, driverOf, inPoint, role, Hr, Hi, RRr, RRi, stack } = this;
+    const { Zr, Zi, isDriver, driverOf, inPoint, RRr, RRi } = this;
     const members = this.netPoints[driverOf[x]];
     for (const p of members) Zr[p] = Zi[p] = 0;
     if (isDriver[x]) return;
@@ -569,33 +648,35 @@ class FastChain implements CompiledChain {
       Zr[x] = ar * inv;
       Zi[x] = -ai * inv;
     }
-    // downward from a point into its sections (skipping the branch we came up through)
-    const down = (from: number, skip: number) => {
-      let top = 0;
-      stack[top++] = from;
-      while (top > 0) {
-        const p = stack[--top];
-        const k = this.kids[p];
-        for (let j = 0; j < k.length; j++) {
-          const c = k[j];
-          if (c === skip) continue;
-          const rc = role[c];
-          if (rc !== ROLE_RC_LP && rc !== ROLE_RC_HP) continue;
-          Zr[c] = Zr[p] * Hr[c] - Zi[p] * Hi[c];
-          Zi[c] = Zr[p] * Hi[c] + Zi[p] * Hr[c];
-          stack[top++] = c;
-        }
-      }
-    };
-    down(x, -1);
+    this.down(x, -1);
     let cur = x;
     while (!isDriver[cur]) {
       const u = inPoint[cur];
       if (isDriver[u]) break;
       Zr[u] = Zr[cur] * RRr[cur] - Zi[cur] * RRi[cur];
       Zi[u] = Zr[cur] * RRi[cur] + Zi[cur] * RRr[cur];
-      down(u, cur);
+      this.down(u, cur);
       cur = u;
+    }
+  }
+
+  /** Carries the spread voltage of point `from` down into its sections, skipping the branch `skip`. */
+  private down(from: number, skip: number): void {
+    const { Zr, Zi, Hr, Hi, role, stack } = this;
+    let top = 0;
+    stack[top++] = from;
+    while (top > 0) {
+      const p = stack[--top];
+      const k = this.kids[p];
+      for (let j = 0; j < k.length; j++) {
+        const c = k[j];
+        if (c === skip) continue;
+        const rc = role[c];
+        if (rc !== ROLE_RC_LP && rc !== ROLE_RC_HP) continue;
+        Zr[c] = Zr[p] * Hr[c] - Zi[p] * Hi[c];
+        Zi[c] = Zr[p] * Hi[c] + Zi[p] * Hr[c];
+        stack[top++] = c;
+      }
     }
   }
 
@@ -604,24 +685,21 @@ class FastChain implements CompiledChain {
     const { role, isDriver, driverOf, inPoint, Hr, Hi, Zr, Zi, levelOf, srcBase } = this;
     const target = role[node] === ROLE_ADC || plus ? inPoint[node] : node;
     // nets from the EMF down to the target: drivers and exit points
-    const drivers: number[] = [];
-    const exits: number[] = [];
+    const { drivers, exits, Wr, Wi, Gxr, Gxi, Gdr, Gdi } = this.lv;
+    // nets from the target up to the EMF, then reversed: level 0 is the EMF's net
+    let m = -1;
     for (let p = target; ; ) {
       const d = driverOf[p];
-      drivers.unshift(d);
-      exits.unshift(p);
+      m++;
+      drivers[m] = d;
+      exits[m] = p;
       if (d === n || role[d] === ROLE_SOURCE_DRIVER) break;
       p = inPoint[d];
     }
-    const m = drivers.length - 1;
+    drivers.subarray(0, m + 1).reverse();
+    exits.subarray(0, m + 1).reverse();
     levelOf.fill(-1);
     // W: driver → exit within the net; Gx: exit → target; Gd: driver → target
-    const Wr = new Float64Array(m + 1);
-    const Wi = new Float64Array(m + 1);
-    const Gxr = new Float64Array(m + 1);
-    const Gxi = new Float64Array(m + 1);
-    const Gdr = new Float64Array(m + 1);
-    const Gdi = new Float64Array(m + 1);
     for (let l = 0; l <= m; l++) {
       levelOf[drivers[l]] = l;
       this.spread(exits[l]);
@@ -693,13 +771,13 @@ class FastChain implements CompiledChain {
         }
       }
     }
-    this.integrators.forEach((i, k) => {
-      const l = levelOf[i];
+    for (let k = 0; k < this.integrators.length; k++) {
+      const l = levelOf[this.integrators[k]];
       if (l >= 0) {
         outRe[this.driftBase + k] = Gdr[l];
         outIm[this.driftBase + k] = Gdi[l];
       }
-    });
+    }
     if (plus) {
       // V+ = (V+/Vin)·Vin + the stage's own direct terms
       const pr = this.Pr[node];

@@ -16,59 +16,74 @@ import { BOLTZMANN, NOISE_REL_TOL } from "./constants";
 import type { CompiledChain } from "./compile-chain";
 import { integrateLog } from "./grids";
 
-/** A noise contribution: which transfer source carries it and its density in V²/Hz or A²/Hz. */
-interface NoiseSource {
-  transfer: number;
-  nodeId: string;
-  element: string;
-  psd: (f: number) => number;
+/**
+ * The noise sources of a chain: which transfer source carries each, and its one-sided density
+ * white·(1 + corner/f) in V²/Hz (A²/Hz for pin currents). Flat arrays so the integrand allocates nothing.
+ */
+interface NoiseSources {
+  nodeId: string[];
+  element: string[];
+  transfer: Int32Array;
+  white: Float64Array;
+  corner: Float64Array;
 }
 
-function noiseSources(chain: Chain, cc: CompiledChain): NoiseSource[] {
+function noiseSources(chain: Chain, cc: CompiledChain): NoiseSources {
   const kT4 = 4 * BOLTZMANN * chain.analysis.temperatureK;
-  const out: NoiseSource[] = [];
+  const list: { nodeId: string; element: string; transfer: number; white: number; corner: number }[] = [];
   const partFor = (id: string): Part | undefined => {
     const node = chain.nodes.find((n) => n.id === id);
     const key = node && "part" in node ? node.part : null;
     return key ? chain.parts[key] : undefined;
   };
   cc.sources.forEach((s, k) => {
+    const add = (element: string, white: number, corner = 0) => {
+      if (white > 0) list.push({ nodeId: s.nodeId, element, transfer: k, white, corner });
+    };
     switch (s.type) {
       case "emf": {
         const src = chain.nodes.find((n) => n.id === s.nodeId);
         if (src?.kind !== "source") return;
-        const nd = src.params.noiseDensity;
-        const rs = src.params.resistance;
-        if (nd > 0) out.push({ transfer: k, nodeId: s.nodeId, element: "source", psd: () => nd * nd });
-        if (rs > 0) out.push({ transfer: k, nodeId: s.nodeId, element: "resistance", psd: () => kT4 * rs });
+        add("source", src.params.noiseDensity ** 2);
+        add("resistance", kT4 * src.params.resistance);
         return;
       }
       case "passive-r":
-      case "johnson": {
-        const r = s.resistance!;
-        out.push({ transfer: k, nodeId: s.nodeId, element: s.element, psd: () => kT4 * r });
+      case "johnson":
+        add(s.element, kT4 * s.resistance!);
         return;
-      }
       case "en": {
         const p = partFor(s.nodeId);
-        const en = p?.en ?? 0;
-        const fc = p?.enCorner ?? 0;
-        if (en > 0) out.push({ transfer: k, nodeId: s.nodeId, element: "en", psd: (f) => en * en * (1 + fc / f) });
+        add("en", (p?.en ?? 0) ** 2, p?.enCorner ?? 0);
         return;
       }
       case "in+":
       case "in-": {
         const p = partFor(s.nodeId);
-        const cur = p?.in ?? 0;
-        const fc = p?.inCorner ?? 0;
-        if (cur > 0) out.push({ transfer: k, nodeId: s.nodeId, element: s.type, psd: (f) => cur * cur * (1 + fc / f) });
+        add(s.type, (p?.in ?? 0) ** 2, p?.inCorner ?? 0);
         return;
       }
       default:
         return;
     }
   });
-  return out;
+  return {
+    nodeId: list.map((x) => x.nodeId),
+    element: list.map((x) => x.element),
+    transfer: Int32Array.from(list, (x) => x.transfer),
+    white: Float64Array.from(list, (x) => x.white),
+    corner: Float64Array.from(list, (x) => x.corner),
+  };
+}
+
+/** Output density of each noise source at f (V²/Hz at the path end) into out[j][i]. */
+function densitiesAt(cc: CompiledChain, ns: NoiseSources, end: number, f: number, re: Float64Array, im: Float64Array, out: Float64Array[], i: number): void {
+  cc.setFrequency(f);
+  cc.transfersTo(end, false, re, im);
+  for (let j = 0; j < ns.transfer.length; j++) {
+    const t = ns.transfer[j];
+    out[j][i] = ns.white[j] * (1 + ns.corner[j] / f) * (re[t] * re[t] + im[t] * im[t]);
+  }
 }
 
 export interface PathNoiseFigures {
@@ -87,45 +102,38 @@ export interface PathNoiseFigures {
 export function pathNoise(chain: Chain, cc: CompiledChain, end: number): PathNoiseFigures {
   const { noiseLow, fMax } = chain.analysis;
   const high = chain.analysis.noiseHigh ?? fMax;
-  const sources = noiseSources(chain, cc);
+  const ns = noiseSources(chain, cc);
+  const count = ns.transfer.length;
   const re = new Float64Array(cc.sources.length);
   const im = new Float64Array(cc.sources.length);
   const evaluate = (freqs: Float64Array, vals: Float64Array[]) => {
-    for (let i = 0; i < freqs.length; i++) {
-      const f = freqs[i];
-      cc.setFrequency(f);
-      cc.transfersTo(end, false, re, im);
-      sources.forEach((s, j) => {
-        const t = s.transfer;
-        vals[j][i] = s.psd(f) * (re[t] * re[t] + im[t] * im[t]);
-      });
-    }
+    for (let i = 0; i < freqs.length; i++) densitiesAt(cc, ns, end, freqs[i], re, im, vals, i);
   };
   // integrate [noiseLow, min(high, fMax)] once, then the part of the longer band beyond it
   const mid = Math.max(noiseLow, Math.min(high, fMax));
-  const first = integrateLog(noiseLow, mid, sources.length, evaluate, NOISE_REL_TOL);
-  const second = integrateLog(mid, Math.max(high, fMax), sources.length, evaluate, NOISE_REL_TOL);
+  const first = integrateLog(noiseLow, mid, count, evaluate, NOISE_REL_TOL);
+  const second = integrateLog(mid, Math.max(high, fMax), count, evaluate, NOISE_REL_TOL);
   const inBand = (j: number) => first[j] + (high > fMax ? second[j] : 0);
   const inTotal = (j: number) => first[j] + (fMax > high ? second[j] : 0);
   let pBand = 0;
   let pTotal = 0;
-  sources.forEach((_, j) => {
+  for (let j = 0; j < count; j++) {
     pBand += inBand(j);
     pTotal += inTotal(j);
-  });
+  }
   const contributions: NoiseContribution[] = [];
-  sources.forEach((s, j) => {
+  for (let j = 0; j < count; j++) {
     const p = inBand(j);
     const pt = inTotal(j);
-    if (!(p > 0) && !(pt > 0)) return;
+    if (!(p > 0) && !(pt > 0)) continue;
     contributions.push({
-      nodeId: s.nodeId,
-      element: s.element,
+      nodeId: ns.nodeId[j],
+      element: ns.element[j],
       rms: Math.sqrt(p),
       share: pBand > 0 ? p / pBand : 0,
       totalRms: Math.sqrt(pt),
     });
-  });
+  }
   contributions.sort((a, b) => b.rms - a.rms || (b.totalRms as number) - (a.totalRms as number));
   return {
     outputRms: Math.sqrt(pBand),
@@ -140,9 +148,10 @@ export function pathNoise(chain: Chain, cc: CompiledChain, end: number): PathNoi
  * Noise density at the path end, V/√Hz, at each frequency (for the density plot), total of all sources.
  */
 export function pathNoiseDensity(chain: Chain, cc: CompiledChain, end: number, freqs: ArrayLike<number>): number[] {
-  const sources = noiseSources(chain, cc);
+  const ns = noiseSources(chain, cc);
   const re = new Float64Array(cc.sources.length);
   const im = new Float64Array(cc.sources.length);
+  const vals = Array.from({ length: ns.transfer.length }, () => new Float64Array(1));
   const out: number[] = [];
   for (let i = 0; i < freqs.length; i++) {
     const f = freqs[i];
@@ -150,10 +159,9 @@ export function pathNoiseDensity(chain: Chain, cc: CompiledChain, end: number, f
       out.push(NaN);
       continue;
     }
-    cc.setFrequency(f);
-    cc.transfersTo(end, false, re, im);
+    densitiesAt(cc, ns, end, f, re, im, vals, 0);
     let p = 0;
-    for (const s of sources) p += s.psd(f) * (re[s.transfer] ** 2 + im[s.transfer] ** 2);
+    for (const v of vals) p += v[0];
     out.push(Math.sqrt(p));
   }
   return out;
