@@ -9,11 +9,14 @@ import { spawnSync } from "node:child_process";
 import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { beforeAll, describe, it } from "vitest";
+import { beforeAll, describe, it, vi } from "vitest";
 import type { AnalysisResult, Chain } from "@/lib/chain/types";
 import { near, nearPhase, same, holds, dB, phaseDeg } from "./support/checks";
 import { acPeak, dcInterval, noiseRms, slewNeeded, magAt, maxOverBand } from "./support/reference-analysis";
 import { buildNet, responseAt } from "./support/nodal";
+
+// Heavy reference integrals and spawned processes: room for a loaded two-core machine.
+vi.setConfig({ testTimeout: 180_000, hookTimeout: 180_000 });
 
 /** The document of chain-format.md, verbatim. */
 const EXAMPLE = {

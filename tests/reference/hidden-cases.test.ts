@@ -6,7 +6,7 @@
  * Every expectation is a closed form derived beside it, or the whole-chain nodal
  * reference (support/nodal.ts).
  */
-import { describe, it } from "vitest";
+import { describe, it, vi } from "vitest";
 import type { Chain } from "@/lib/chain/types";
 import {
   adc,
@@ -26,6 +26,9 @@ import { acPeak, dcInterval, noiseRms } from "./support/reference-analysis";
 import { responseAt } from "./support/nodal";
 import { rcLowpassH } from "./support/closed-forms";
 import { analyze, nonFinitePaths, pathTo, stageOf } from "./support/engine-access";
+
+// Heavy reference integrals and spawned processes: room for a loaded two-core machine.
+vi.setConfig({ testTimeout: 180_000, hookTimeout: 180_000 });
 
 const EXACT = (v: number) => ({ abs: 1e-9 * Math.max(1, Math.abs(v)) });
 

@@ -5,7 +5,7 @@
  * on |H|² from the nodal solver; the engine's integrals are held to 1e-4 relative
  * (references.md §0, values from numerical integration in the tool).
  */
-import { describe, it } from "vitest";
+import { describe, it, vi } from "vitest";
 import type { Chain, ChainNode, Part } from "@/lib/chain/types";
 import {
   adc,
@@ -21,6 +21,9 @@ import { near, same, holds } from "./support/checks";
 import { K_BOLTZMANN, buildNet } from "./support/nodal";
 import { magAt, maxOverBand, noiseRms, slewNeeded } from "./support/reference-analysis";
 import { analyze, pathTo, stageOf, warningsOf } from "./support/engine-access";
+
+// Heavy reference integrals and spawned processes: room for a loaded two-core machine.
+vi.setConfig({ testTimeout: 180_000, hookTimeout: 180_000 });
 
 const NUM = { rel: 1e-4 };
 

@@ -5,7 +5,7 @@
  * analytic step response. If these pass, a disagreement with the engine elsewhere
  * points at the engine (or at the spec), not at the reference.
  */
-import { describe, it } from "vitest";
+import { describe, it, vi } from "vitest";
 import {
   adc,
   inverting,
@@ -20,7 +20,8 @@ import {
   source,
   integrator,
 } from "./support/chain-builders";
-import { responseAt } from "./support/nodal";
+import { assemble, buildNet, jw, responseAt, solve } from "./support/nodal";
+import { cx } from "./support/cx";
 import { dcInterval, noiseDensityAt, noiseRms, maxOverBand } from "./support/reference-analysis";
 import {
   integratorH,
@@ -40,6 +41,9 @@ import {
 import { dB, near, nearPhase, phaseDeg } from "./support/checks";
 import { adaptiveSimpson, integrateLogVec } from "./support/simpson";
 import { integrate, sineSteadyState } from "./support/ode";
+
+// Heavy reference integrals and spawned processes: room for a loaded two-core machine.
+vi.setConfig({ testTimeout: 180_000, hookTimeout: 180_000 });
 
 const REL = 1e-9;
 const at = (chain: ReturnType<typeof single>, f: number) => responseAt(chain, "adc", f);
@@ -121,6 +125,30 @@ describe("reference nodal solver: ideal stages against their closed forms", () =
     const c = makeChain({ nodes: [source(), rcLowpass("a", { r: 1e4, c: 1e-8 }), rcLowpass("b", { r: 1e4, c: 1e-8 }), adc("adc")] });
     for (const f of [1, 300, 1591.55, 5000, 1e5]) {
       near(dB(at(c, f)), dB(rcLadder2H(1e4, 1e-8, f)), { abs: 1e-9 }, "chain-format.md loaded ladder formula");
+    }
+  });
+});
+
+describe("reference nodal solver: sparse and dense mathjs solves agree", () => {
+  it("slu + lusolve equals dense lusolve on a long chain's MNA matrix", () => {
+    const c = makeChain({
+      nodes: [
+        source({ resistance: 100 }),
+        sallenKey("a", { r1: 1e4, r2: 2.2e4, c1: 1e-8, c2: 4.7e-9 }, { part: "p" }),
+        mfb("b", { r1: 1e4, r2: 1e4, r3: 4.7e3, c1: 1e-8, c2: 1e-9 }, { part: "p" }),
+        rcLowpass("c", { r: 1e4, c: 1e-8 }),
+        inverting("d", { r1: 1e4, r2: 3.3e4 }, { part: "p" }),
+        adc("adc", { inputResistance: 1e5 }),
+      ],
+      parts: { p: { aol: 1e5, gbw: 1e6 } },
+    });
+    const net = buildNet(c);
+    for (const f of [3, 700, 2e4]) {
+      const A = assemble(net, jw(f));
+      const b = A.map((_, i) => cx(Math.cos(i), Math.sin(2 * i)));
+      const xs = solve(A, b)!;
+      const xd = solve(A, b, true)!;
+      xs.forEach((v, i) => near(v.sub(xd[i]).abs(), 0, { abs: 1e-12 * Math.max(1, xd[i].abs()) }, "two mathjs solvers on one matrix"));
     }
   });
 });

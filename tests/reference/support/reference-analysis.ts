@@ -5,7 +5,7 @@
  */
 import { cx, type Cx } from "./cx";
 import type { Chain, Interval } from "@/lib/chain/types";
-import { adjoint, buildNet, GND, jw, K_BOLTZMANN, weight, type Injection, type Net } from "./nodal";
+import { adjoint, buildNet, forward, GND, jw, K_BOLTZMANN, weight, type Injection, type Net } from "./nodal";
 import { integrateLogVec } from "./simpson";
 
 const ZERO = cx(0, 0);
@@ -56,20 +56,29 @@ export function dcInterval(chain: Chain, nodeId: string): Interval | null {
   return dcIntervalAtNet(chain, net.outputOf.get(nodeId)!);
 }
 
-/** Response magnitude |V(netNode)/EMF| at f, with a prebuilt net. */
+/** Response magnitude |V(netNode)/EMF| at f, with a prebuilt net (forward solve, memoised). */
 export function magAt(net: Net, netNode: string, f: number): number {
-  const y = adjoint(net, jw(f), netNode);
-  if (!y) return Infinity;
-  return mag(weight(net, y, { type: "emf" }));
+  if (netNode === GND) return 0;
+  const x = forward(net, f);
+  if (!x) return Infinity;
+  return mag(x[net.index.get(netNode)!]);
+}
+
+/** The AC net of a chain, built once per chain object (the reference tests never mutate a chain's nodes). */
+const nets = new WeakMap<Chain, Net>();
+export function netOf(chain: Chain): Net {
+  let n = nets.get(chain);
+  if (!n) nets.set(chain, (n = buildNet(chain)));
+  return n;
 }
 
 /**
- * max of g(f) over [lo, hi]: a 240-point log grid with both ends exact, then a
+ * max of g(f) over [lo, hi]: a 160-point log grid with both ends exact, then a
  * golden-section refinement around the best grid point (the maxima here are smooth).
  */
 export function maxOverBand(g: (f: number) => number, lo: number, hi: number): { f: number; value: number } {
   const start = lo > 0 ? lo : hi * 1e-9;
-  const n = 240;
+  const n = 160;
   const grid = Array.from({ length: n + 1 }, (_, i) => start * Math.pow(hi / start, i / n));
   grid[0] = start;
   grid[n] = hi;
@@ -119,19 +128,19 @@ export function maxOverBand(g: (f: number) => number, lo: number, hi: number): {
 
 /** acPeak = amplitude · max |H_src→node| over [fLow, fHigh] (chain-format.md "Headroom"). */
 export function acPeakAtNet(chain: Chain, netNode: string): number {
-  const net = buildNet(chain);
+  const net = netOf(chain);
   const sp = sourceOf(chain).params;
   return sp.amplitude * maxOverBand((f) => magAt(net, netNode, f), sp.fLow, sp.fHigh).value;
 }
 
 export function acPeak(chain: Chain, nodeId: string): number {
-  const net = buildNet(chain);
+  const net = netOf(chain);
   return acPeakAtNet(chain, net.outputOf.get(nodeId)!);
 }
 
 /** slewNeeded = max over [fLow, fHigh] of 2π·f·amplitude·|H_src→node(f)| (chain-format.md "Slew rate"). */
 export function slewNeeded(chain: Chain, nodeId: string): number {
-  const net = buildNet(chain);
+  const net = netOf(chain);
   const node = net.outputOf.get(nodeId)!;
   const sp = sourceOf(chain).params;
   return maxOverBand((f) => 2 * Math.PI * f * sp.amplitude * magAt(net, node, f), sp.fLow, sp.fHigh).value;

@@ -63,9 +63,9 @@ export function integrateLogVec(g: VecFn, lo: number, hi: number, rel = 1e-8): n
   };
   const a = Math.log(lo);
   const b = Math.log(hi);
-  // Coarse estimate on 64 panels to scale the tolerance; panels also stop early
+  // Coarse estimate on 32 panels to scale the tolerance; panels also stop early
   // convergence on a narrow peak that a 3-point start could miss.
-  const panels = 64;
+  const panels = 32;
   let coarse = 0;
   const edges = Array.from({ length: panels + 1 }, (_, i) => a + ((b - a) * i) / panels);
   for (let i = 0; i < panels; i++) coarse += sum(simpson(edges[i + 1] - edges[i], h(edges[i]), h((edges[i] + edges[i + 1]) / 2), h(edges[i + 1])));
