@@ -148,3 +148,28 @@ export function assertTeam(userId: string | null | undefined, action: TeamAction
   if (!rights.has(action)) throw new AccessError(403, `Your role in this team does not allow "${action}".`);
   return rights;
 }
+
+// ---------------------------------------------------------------------------
+// Rules that look at the chain's state as well as the role (issue 5)
+
+/**
+ * Deleting a chain needs "delete"; deleting an approved chain needs more: an owner share of that
+ * chain. Team admins hold owner rights on every team chain, but an approved design is its owner's to
+ * withdraw, not something an admin clears away in passing.
+ */
+export function assertChainDelete(rights: ChainRights): void {
+  if (!rights.actions.has("delete")) throw new AccessError(403, `Your role on this chain does not allow "delete".`);
+  if (rights.chain.reviewState === "approved" && rights.chainRole !== "owner") {
+    throw new AccessError(403, "This chain is approved: only its owner may delete it.");
+  }
+}
+
+/** A comment may be deleted by its author, or by whoever may share the chain (its owners). */
+export function mayDeleteComment(userId: string, authorId: string | null, rights: Pick<ChainRights, "actions">): boolean {
+  return authorId === userId || rights.actions.has("share");
+}
+
+/** Whether a user (by their roles) could act as a reviewer of a chain: who may be asked for a review. */
+export function canReview(teamRole: TeamRole | null, chainRole: ChainRole | null): boolean {
+  return chainActionsFor(teamRole, chainRole).has("review");
+}
