@@ -138,7 +138,7 @@ export function operatingPoint(chain: Chain, cc: CompiledChain): OperatingPoint 
     } else plus.push(null);
     const kind = cc.kinds[i];
     const h = cc.stageAt(i).hRe;
-    stageGain.push(kind === "integrator" || kind === "adc" || !Number.isFinite(h) ? null : h);
+    stageGain.push(kind === "integrator" || kind === "adc" || kind === "source" || !Number.isFinite(h) ? null : h);
   }
   return { out, plus, stageGain };
 }
