@@ -22,7 +22,7 @@ import {
   links,
 } from "./support/chain-builders";
 import { near, nearPhase, same, dB, phaseDeg } from "./support/checks";
-import { acPeak, dcInterval, noiseRms } from "./support/reference-analysis";
+import { acPeak, dcInterval, noiseRms, slewNeeded as slewNeededRef } from "./support/reference-analysis";
 import { responseAt } from "./support/nodal";
 import { rcLowpassH } from "./support/closed-forms";
 import { analyze, nonFinitePaths, pathTo, stageOf } from "./support/engine-access";
@@ -86,6 +86,43 @@ describe("DC operating points the capacitors shape", () => {
   });
 });
 
+describe("a passive section's DC is set by what loads it", () => {
+  it("AC coupling with vbias into an inverting stage: Vo = vref − r2·(vbias − vref)/(r + r1)", () => {
+    const [r, r1, r2, vbias, vref] = [4.7e4, 1e4, 3.3e4, 1.5, 0.5];
+    const c = makeChain({ nodes: [source({ dc: 2 }), rcHighpass("hp", { r, c: 1e-6, vbias }), inverting("g", { r1, r2, vref }), adc("adc")] });
+    const v = vref - (r2 * (vbias - vref)) / (r + r1);
+    dcIs(c, "g", v, v, "derived: DC current from vbias through r and r1 into the virtual earth at vref (capacitor open)");
+  });
+});
+
+describe("figures come from their own grids, not the plotted one (chain-format.md 'Grids')", () => {
+  const chain = (points: number) =>
+    makeChain({
+      nodes: [
+        source({ amplitude: 0.7, fLow: 13, fHigh: 347, resistance: 330 }),
+        rcHighpass("hp", { r: 1e4, c: 1 / (2 * Math.PI * 1e4 * 1e3) }),
+        sallenKey("sk", { r1: 1e4, r2: 1e4, c1: 1e-7, c2: 2.5e-9 }, { part: "p" }),
+        adc("adc", { sampleRate: 1500 }),
+      ],
+      parts: { p: { en: 1e-8, gbw: 1e6 } },
+      analysis: { points, noiseLow: 2, noiseHigh: 400 },
+    });
+  it("acPeak, slewNeeded, alias and noise are the same with 2 plotted points, 2000 points, or one --freq", () => {
+    const runs = [analyze(chain(2)), analyze(chain(2000)), analyze(chain(600), [123.4])];
+    const ref = chain(600);
+    const peak = acPeak(ref, "sk");
+    const slew = slewNeededRef(ref, "sk");
+    const noise = noiseRms(ref, "adc", 2, 400, 1e-8).rms;
+    for (const r of runs) {
+      const s = stageOf(r, "sk");
+      near(s.acPeak, peak, { rel: 1e-6 }, "chain-format.md: peaks on their own dense grid with the exact band limits (nodal reference)");
+      near(s.slewNeeded, slew, { rel: 1e-6 }, "chain-format.md: slew on its own grid (nodal reference)");
+      near(pathTo(r, "adc").noise.outputRms, noise, { rel: 1e-4 }, "chain-format.md: noise on its own grid (adaptive Simpson reference)");
+    }
+    near(runs[0].paths[0].adc?.aliasAttenuationDb, runs[1].paths[0].adc?.aliasAttenuationDb ?? NaN, { abs: 1e-9 }, "chain-format.md: alias on its own grid, independent of points");
+  });
+});
+
 describe("fan-out: each branch loads the other, at DC, in the band and in noise", () => {
   const fan = makeChain({
     nodes: [
@@ -123,6 +160,16 @@ describe("fan-out: each branch loads the other, at DC, in the band and in noise"
       });
     }
   });
+  it("one path per sink, its nodes from the source, its op-amp stages in path order (chain-format.md 'Analysis result')", () => {
+    const r = analyze(fan);
+    same(r.paths.length, 3, "chain-format.md: a path runs from the source to each node with no outgoing edge");
+    const want: Record<string, string[]> = { adcA: ["src", "rc", "inv", "adcA"], adcB: ["src", "rc", "ni", "adcB"], adcC: ["src", "hp", "adcC"] };
+    for (const [end, nodes] of Object.entries(want)) {
+      const p = pathTo(r, end);
+      same(p.nodes, nodes, `chain-format.md: path nodes from the source to ${end}`);
+      same(p.stages.filter((s) => s.status !== undefined).map((s) => s.id), nodes.filter((id) => id === "inv" || id === "ni"), `chain-format.md: the path's op-amp stages in order, ${end}`);
+    }
+  });
   it("noise at each ADC includes the resistors of sibling branches that load the shared nodes", () => {
     const r = analyze(fan);
     for (const end of ["adcA", "adcB", "adcC"]) {
@@ -134,6 +181,36 @@ describe("fan-out: each branch loads the other, at DC, in the band and in noise"
     const hpR = ref.parts.find((p) => p.owner === "hp" && p.element === "r")!.rms;
     const got = pathTo(r, "adcA").noise.contributions.find((c) => c.nodeId === "hp" && c.element === "r")?.rms;
     near(got, hpR, { rel: 1e-3 }, "chain-format.md: every resistor's 4kTR to the path's end through its own transfer (sibling branch)");
+  });
+});
+
+describe("extremes", () => {
+  it("Sallen-Key peaks up to Q = 5000: acPeak = Q/√(1 − 1/(4Q²)) and slewNeeded = 2π·f0·Q (amplitude 1)", () => {
+    for (const ratio of [1e2, 1e4, 1e6, 1e8]) {
+      const c1 = 1e-8 * Math.sqrt(ratio);
+      const c2 = c1 / ratio;
+      const q = 0.5 * Math.sqrt(ratio);
+      const f0 = 1 / (2 * Math.PI * 1e4 * Math.sqrt(c1 * c2));
+      const c = makeChain({ nodes: [source({ amplitude: 1, fLow: f0 / 30, fHigh: f0 * 30 }), sallenKey("sk", { r1: 1e4, r2: 1e4, c1, c2 }), adc("adc")] });
+      const s = stageOf(analyze(c), "sk");
+      near(s.acPeak, q / Math.sqrt(1 - 1 / (4 * q * q)), { rel: 1e-9 }, `derived: peak of the second-order low-pass (references.md §6 H), Q = ${q}`);
+      // ω·|H| = 1/√((1/x − x)² + 1/Q²) with x = f/f0 is largest at x = 1, where it is ω0·Q (derived)
+      near(s.slewNeeded, 2 * Math.PI * f0 * q, { rel: 1e-9 }, `derived: max of 2πf·|H| at f0 equals 2π·f0·Q, Q = ${q}`);
+    }
+  });
+  it("an eight-section passive ladder with time constants from 10 ns to 10 ms, 1 mHz to 10 MHz (nodal solve)", () => {
+    const rs = [100, 1e6, 1e3, 3e5, 1e4, 220, 4.7e4, 1e5];
+    const cs = [1e-5, 1e-10, 4.7e-7, 1e-9, 2.2e-8, 1e-6, 1e-9, 3.3e-10];
+    const sections = rs.map((r, i) => (i % 3 === 2 ? rcHighpass(`s${i}`, { r, c: cs[i] }) : rcLowpass(`s${i}`, { r, c: cs[i] })));
+    const c = makeChain({ nodes: [source({ resistance: 50 }), ...sections, adc("adc", { inputResistance: 1e6 })], analysis: { fMin: 1e-3, fMax: 1e7 } });
+    const freqs = Array.from({ length: 41 }, (_, i) => 1e-3 * Math.pow(1e10, i / 40));
+    const r = pathTo(analyze(c, freqs), "adc").response;
+    freqs.forEach((f, i) => {
+      const h = responseAt(c, "adc", f);
+      if (dB(h) < -160) return; // beyond what the double-precision reference resolves
+      near(r.magDb[i], dB(h), { abs: 1e-7 }, `whole-chain nodal solve (ABCD cascade must equal it), ${f.toExponential(2)} Hz`);
+      nearPhase(r.phaseDeg[i], phaseDeg(h), 1e-6, `whole-chain nodal solve, ${f.toExponential(2)} Hz`);
+    });
   });
 });
 

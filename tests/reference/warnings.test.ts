@@ -94,6 +94,7 @@ describe("the other codes", () => {
     const r = analyze(chainOf(noninverting("b", { rf: null, rg: null }, { part: "p", rails: { low: -5, high: 5 }, label: "Input buffer" }), { dc: 3.8, amplitude: 0 }, { p: { inputHigh: 1.5 } }));
     const m = only(r, "input-range", "b");
     namesStage(m, "b", "Input buffer", "input-range");
+    holds(/\bdc\b|source/i.test(m), `chain-format.md: cause is the source's DC (3.8 V, no signal): "${m}"`);
     saysHowMuch(m, 0.3, "input-range"); // 3.8 V against 3.5 V (derived)
   });
   it("slew", () => {
@@ -105,6 +106,7 @@ describe("the other codes", () => {
     const r = analyze(chainOf(noninverting("b", { rf: null, rg: null }, { rails: RAILS }), { amplitude: 2.5 }, {}, "conv1", { vinLow: -2, vinHigh: 2 }));
     const m = only(r, "adc-range", "conv1");
     namesStage(m, "conv1", undefined, "adc-range");
+    holds(/peak|signal|\bac\b|amplitude/i.test(m), `chain-format.md: cause is the signal peak (no DC): "${m}"`);
     saysHowMuch(m, 0.5, "adc-range");
   });
   it("alias", () => {
