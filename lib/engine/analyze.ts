@@ -21,7 +21,7 @@ import { ANALYSIS_FORMAT } from "../chain/types";
 import { TIGHT_SHARE, TWO_PI } from "./constants";
 import { compileChain, type CompiledChain, type SweepResult } from "./compile-chain";
 import { operatingPoint, type DcPoint, type DcTerm } from "./dc";
-import { db, si, volts } from "./format";
+import { db, si } from "./format";
 import { bandGrid, bandMax, logGrid } from "./grids";
 import { idealCharacteristics } from "./ideal";
 import { pathNoise, pathNoiseDensity } from "./noise";
@@ -123,7 +123,7 @@ interface NodeFigures {
 }
 
 /** Band maxima of every node's response (and op-amp (+) pins) over the source band. */
-function bandFigures(chain: Chain, cc: CompiledChain, fLow: number, fHigh: number): NodeFigures[] {
+function bandFigures(cc: CompiledChain, fLow: number, fHigh: number): NodeFigures[] {
   const grid = bandGrid(fLow, fHigh);
   const sw = cc.sweep(grid);
   const one = cc.sweep(Float64Array.of(fLow > 0 ? fLow : fHigh));
@@ -195,7 +195,7 @@ export function analyzeChain(chain: Chain, opts: AnalyzeOptions = {}): AnalysisR
 
   // ---- DC operating point and band figures
   const op = operatingPoint(chain, cc);
-  const band = bandFigures(chain, cc, sp.fLow, sp.fHigh);
+  const band = bandFigures(cc, sp.fLow, sp.fHigh);
   const amp = sp.amplitude;
 
   // ---- per-node results (shared by every path through the node)
@@ -356,7 +356,7 @@ function adcFigures(
   const src = cc.topology.nodes[0];
   if (src.kind !== "source") throw new Error("no source");
   const { bits, sampleRate, vinLow, vinHigh } = node.params;
-  const { fLow, fHigh, amplitude } = src.params;
+  const { fHigh, amplitude } = src.params;
   const span = vinHigh - vinLow;
   const lsb = span / 2 ** bits;
   const quantNoiseRms = lsb / Math.sqrt(12);

@@ -22,7 +22,4 @@ export function si(value: number, unit: string, digits = 3): string {
   return `${shown} ${prefix}${unit}`;
 }
 
-/** Signed volts, e.g. "+1.20 V". */
-export const volts = (v: number) => (v > 0 ? "+" : "") + si(v, "V");
-
 export const db = (v: number) => `${v.toFixed(1)} dB`;
