@@ -13,6 +13,7 @@ import { defaultMailboxPath, startMailStandin } from "./mail-standin";
 process.env.MAIL_STANDIN ??= "1";
 process.env.SMTP_HOST ??= "127.0.0.1";
 process.env.SMTP_PORT ??= "2525";
+process.env.NEXT_TELEMETRY_DISABLED ??= "1"; // no network calls from a local trial
 
 async function main(): Promise<void> {
   const settings = env();
