@@ -53,7 +53,12 @@ export function buildAuthConfig(): NextAuthConfig {
         server: { host: e.smtp.host, port: e.smtp.port },
         from: e.mailFrom,
         maxAge: SIGN_IN_LINK_MAX_AGE_S,
-        normalizeIdentifier: normalizeEmail,
+        normalizeIdentifier(identifier) {
+          // Auth.js's own normaliser also refuses malformed addresses; keep that, in one canonical form
+          const email = normalizeEmail(identifier ?? "");
+          if (!credentialsSchema.shape.email.safeParse(email).success) throw new Error("not an e-mail address");
+          return email;
+        },
         async sendVerificationRequest({ identifier, url }) {
           const decision = takeRateToken(`sign-in-mail:${identifier}`, e.signinMailLimit, e.signinMailWindowMs);
           if (!decision.allowed) throw new SignInMailLimited(decision.retryAfterMs);

@@ -59,9 +59,11 @@ describe("e-mail link provider", () => {
     expect(messagesFor(mailbox, "b@test.example")).toHaveLength(1);
   });
 
-  it("normalises addresses to one form", () => {
+  it("normalises addresses to one form and refuses what is not an address", () => {
     const normalize = provider("nodemailer").options.normalizeIdentifier as unknown as (s: string) => string;
     expect(normalize("  Maren@Keelwater.EXAMPLE ")).toBe("maren@keelwater.example");
+    expect(() => normalize("not-an-address")).toThrow(/not an e-mail address/);
+    expect(() => normalize("a@b@c.example")).toThrow();
   });
 });
 
