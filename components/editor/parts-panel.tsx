@@ -11,6 +11,7 @@ import { parseQuantity, type QuantityUnit } from "@/lib/units";
 import { useEditor, useEditorActions } from "@/lib/store/editor-context";
 import { QuantityInput } from "./quantity-input";
 import { valueToText, type FieldRead } from "./field-read";
+import { LibraryModels } from "@/components/library/library-models";
 
 type NumericPartKey = Exclude<keyof Part, "label">;
 
@@ -87,6 +88,7 @@ export function PartsPanel({ readOnly, focusKey }: { readOnly: boolean; focusKey
         </ul>
       )}
       {current && <PartEditor key={current} partKey={current} part={parts[current]} readOnly={readOnly} />}
+      <LibraryModels readOnly={readOnly} />
     </section>
   );
 }

@@ -153,3 +153,20 @@ export function acceptInvitation(token: string, user: { id: string; email: strin
     return { ok: true, invitation: inv, granted: held?.role ?? inv.role };
   });
 }
+
+/**
+ * Create the account an invitation was sent to: the link proves the address (it was mailed there), so
+ * the account is verified at once and its password set. Refused when the invitation is not open or
+ * the address already has an account (its owner signs in instead).
+ */
+export function createInvitedUser(token: string, name: string, passwordHash: string, now = new Date()): { ok: true; userId: string; email: string } | { ok: false; reason: "not-open" | "exists" } {
+  const db = getDb();
+  return db.transaction((tx) => {
+    const inv = tx.select().from(invitations).where(eq(invitations.tokenHash, hashToken(token))).get();
+    if (!inv || inv.usedAt || inv.expiresAt.getTime() <= now.getTime()) return { ok: false, reason: "not-open" };
+    const existing = tx.select({ id: users.id }).from(users).where(eq(users.email, inv.email)).get();
+    if (existing) return { ok: false, reason: "exists" };
+    const user = tx.insert(users).values({ name, email: inv.email, emailVerified: now, passwordHash }).returning({ id: users.id }).get();
+    return { ok: true, userId: user.id, email: inv.email };
+  });
+}

@@ -212,7 +212,7 @@ function stageName(s: { id: string; label: string | null }): string {
 
 /**
  * A one-line account of a diff for the revision list: the values themselves when there are few
- * ("r2 of u1 100 kΩ → 47.0 kΩ"), counts when there are many. At most 240 characters.
+ * ("u1: r2 100 kΩ → 47.0 kΩ"), counts when there are many. At most 240 characters.
  */
 export function summarizeDiff(diff: ChainDiff): string {
   const parts: string[] = [];
@@ -224,7 +224,7 @@ export function summarizeDiff(diff: ChainDiff): string {
   if (added.length) parts.push(`added ${added.length > 2 ? plural(added.length, "stage") : added.map(stageName).join(", ")}`);
   if (removed.length) parts.push(`removed ${removed.length > 2 ? plural(removed.length, "stage") : removed.map(stageName).join(", ")}`);
   if (valueCount > 0 && valueCount <= 2) {
-    for (const s of changed) for (const v of s.values) parts.push(`${v.field} of ${stageName(s)} ${v.old} → ${v.new}`);
+    for (const s of changed) for (const v of s.values) parts.push(`${stageName(s)}: ${v.field} ${v.old} → ${v.new}`);
   } else if (valueCount > 2) {
     parts.push(`changed ${plural(valueCount, "value")} in ${changed.length > 3 ? plural(changed.length, "stage") : changed.map(stageName).join(", ")}`);
   }
@@ -238,8 +238,9 @@ export function summarizeDiff(diff: ChainDiff): string {
   if (diff.parts.length) parts.push(`op-amp models: ${diff.parts.map((p) => `${p.label ?? p.key} ${p.change}`).join(", ")}`);
   if (diff.settings.length) parts.push(diff.settings.length <= 2 ? diff.settings.map((v) => `${v.field} ${v.old} → ${v.new}`).join(", ") : `${plural(diff.settings.length, "setting")} changed`);
   if (diff.notesChanged) parts.push("notes edited");
-  if (!parts.length) return diff.moved.length ? `moved ${plural(diff.moved.length, "stage")}` : "no change";
+  if (!parts.length) return diff.moved.length ? `Moved ${plural(diff.moved.length, "stage")}` : "no change";
   const text = parts.join("; ");
-  const sentence = text.charAt(0).toUpperCase() + text.slice(1);
+  // Sentences that start with one of our words get a capital; ids and field names keep their case.
+  const sentence = /^(renamed|added|removed|changed|connections|op-amp|notes)/.test(text) ? text.charAt(0).toUpperCase() + text.slice(1) : text;
   return sentence.length > SUMMARY_MAX ? `${sentence.slice(0, SUMMARY_MAX - 1)}…` : sentence;
 }

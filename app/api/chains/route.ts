@@ -4,15 +4,59 @@ import { insertChain, listChainsForUser } from "@/db/queries/chains";
 import { listUserTeams } from "@/db/queries/teams";
 import { checkDraftDocument, starterDraft } from "@/lib/api/chain-documents";
 import { chainView } from "@/lib/api/chain-view";
-import { ApiError } from "@/lib/api/errors";
+import { ApiError, ValidationError } from "@/lib/api/errors";
 import { apiRoute } from "@/lib/api/handler";
-import { parseBody } from "@/lib/api/validate";
+import { parseBody, validate } from "@/lib/api/validate";
+import { LIBRARY_SORTS, searchLibrary } from "@/db/queries/library";
+import { REVIEW_STATES, WORST_STATUSES } from "@/db/schema";
 import { requireUser } from "@/lib/auth/guard";
 import { assertTeam, chainActionsFor, effectiveChainRole, teamRights } from "@/lib/auth/permissions";
 
-/** GET /api/chains: every chain the caller may see, newest change first. */
-export const GET = apiRoute(async () => {
+const listQuery = z.object({
+  q: z.string().max(200).optional(),
+  teamId: z.string().max(64).optional(),
+  ownerId: z.string().max(64).optional(),
+  reviewState: z.enum(REVIEW_STATES).optional(),
+  worstStatus: z.enum([...WORST_STATUSES, "none"]).optional(),
+  archived: z.enum(["0", "1"]).optional(),
+  sort: z.enum(LIBRARY_SORTS).optional(),
+  dir: z.enum(["asc", "desc"]).optional(),
+  page: z.coerce.number().int().min(1).max(10_000).optional(),
+  pageSize: z.coerce.number().int().min(1).max(100).optional(),
+});
+
+/**
+ * GET /api/chains: every chain the caller may see, newest change first. With any of `q`, `teamId`,
+ * `ownerId`, `reviewState`, `worstStatus`, `archived`, `sort`, `dir`, `page`, `pageSize` it answers
+ * one page of the library, searched, filtered and sorted by the database, with `total`.
+ */
+export const GET = apiRoute(async (request: Request) => {
   const user = await requireUser();
+  const url = new URL(request.url);
+  if ([...url.searchParams.keys()].length > 0) {
+    const parsed = validate(listQuery, Object.fromEntries(url.searchParams));
+    if (!parsed.ok) throw new ValidationError(parsed.errors);
+    const p = parsed.data;
+    const page = searchLibrary(user.id, { ...p, archived: p.archived === "1" });
+    return Response.json({
+      chains: page.rows.map((c) => ({
+        id: c.id,
+        name: c.name,
+        team: { id: c.teamId, name: c.teamName },
+        owners: c.owners,
+        role: effectiveChainRole(c.teamRole, c.chainRole),
+        actions: [...chainActionsFor(c.teamRole, c.chainRole)],
+        reviewState: c.reviewState,
+        worstStatus: c.worstStatus,
+        version: c.version,
+        updatedAt: c.updatedAt.toISOString(),
+        archived: c.archivedAt !== null,
+      })),
+      total: page.total,
+      page: page.page,
+      pageSize: page.pageSize,
+    });
+  }
   const chains = listChainsForUser(user.id).map((c) => ({
     id: c.id,
     name: c.name,

@@ -13,8 +13,8 @@ type Context = { params: Promise<{ id: string }> };
 /** GET /api/chains/:id/comments: every thread, each pinned to a stage (nodeId) or to the chain (null). */
 export const GET = apiRoute<Context>(async (_request, { params }) => {
   const { id } = await params;
-  await requireChain("view", id);
-  return Response.json({ threads: threadsView(id) });
+  const { user, actions } = await requireChain("view", id);
+  return Response.json({ threads: threadsView(id), me: { id: user.id, canComment: actions.has("comment"), canModerate: actions.has("share") } });
 });
 
 const commentSchema = z.object({

@@ -18,8 +18,13 @@ type Context = { params: Promise<{ id: string }> };
 /** GET /api/chains/:id/reviews: the review state and every request with each reviewer's decision. */
 export const GET = apiRoute<Context>(async (_request, { params }) => {
   const { id } = await params;
-  const { chain } = await requireChain("view", id);
-  return Response.json({ reviewState: chain.reviewState, version: chain.version, rounds: reviewsView(id) });
+  const { chain, user, actions } = await requireChain("view", id);
+  return Response.json({
+    reviewState: chain.reviewState,
+    version: chain.version,
+    rounds: reviewsView(id),
+    me: { id: user.id, actions: [...actions] },
+  });
 });
 
 const requestSchema = z.object({
