@@ -25,6 +25,7 @@ import { Inspector } from "./inspector";
 import { SaveIndicator } from "./save-indicator";
 import { commandFor, isTypingTarget, KEY_TABLE, type Command } from "./shortcuts";
 import { LiveProbe } from "./live-probe";
+import { TeamTools } from "@/components/review/team-tools";
 
 export interface WorkspaceProps {
   chain: ChainDto;
@@ -129,6 +130,7 @@ function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
   return (
     <div data-workspace className="flex h-[calc(100dvh-53px)] min-h-[600px] flex-col bg-paper" data-testid="workspace">
       <WorkspaceBar role={role} run={run} keysOpen={keysOpen} setKeysOpen={setKeysOpen} />
+      <TeamTools />
       <Banners />
       <div className="grid min-h-0 flex-1 grid-cols-[176px_minmax(0,1fr)_336px]">
         <aside className="min-h-0 overflow-y-auto border-r border-paper-rule bg-paper-sunk/40">
