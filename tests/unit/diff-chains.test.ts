@@ -26,7 +26,7 @@ describe("diffChains", () => {
 
   it("writes a changed resistor's old and new value in engineering notation", () => {
     const after = base();
-    (after.nodes[1].params as Record<string, number>).r2 = 47_000;
+    (after.nodes[1].params as unknown as Record<string, number>).r2 = 47_000;
     const d = diffChains(base(), after);
     expect(d.stages).toEqual([{ id: "u1", kind: "lossyIntegrator", label: null, change: "changed", values: [{ field: "r2", old: "100 kΩ", new: "47.0 kΩ" }] }]);
     expect(summarizeDiff(d)).toBe("u1: r2 100 kΩ → 47.0 kΩ");

@@ -34,7 +34,7 @@ describe("keyResults", () => {
 describe("diffKeyResults", () => {
   it("is empty for the same chain and names the DC gain change when a gain resistor changes", () => {
     expect(diffKeyResults(keyResults(ballastPressure), keyResults(ballastPressure))).toEqual([]);
-    const lower = clone(ballastPressure) as { nodes: Array<{ kind: string; params: Record<string, number> }> };
+    const lower = clone(ballastPressure) as unknown as { nodes: Array<{ kind: string; params: Record<string, number> }> };
     const stage = lower.nodes.find((n) => n.kind === "noninverting")!;
     stage.params.rf = stage.params.rf / 10;
     const changes = diffKeyResults(keyResults(ballastPressure), keyResults(lower));
