@@ -36,7 +36,7 @@ function world() {
 
 function withGain(rf: number) {
   const doc = clone(hullVibration);
-  (doc.nodes.find((n) => n.id === "gain")!.params as Record<string, number>).rf = rf;
+  (doc.nodes.find((n) => n.id === "gain")!.params as unknown as Record<string, number>).rf = rf;
   return doc;
 }
 
