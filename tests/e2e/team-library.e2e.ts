@@ -80,6 +80,8 @@ describe.skipIf(ctx.skip !== null)("viewer, history and the op-amp library (prod
     const restored = await serverChain(page, id);
     expect(restored.version).toBe(original.version + 2);
     expect(restored.document.nodes).toEqual(original.document.nodes);
+    // leave the demo team's chain list as the other browser tests expect it
+    expect((await page.request.delete(`/api/chains/${id}`)).status()).toBe(200);
     await context.close();
   });
 

@@ -160,6 +160,8 @@ describe.skipIf(ctx.skip !== null)("review by invitation, from draft to approved
     await eng.page.getByTestId("back-to-draft").waitFor();
     await expect(eng.page.getByTestId("review-state").first().getAttribute("data-state")).resolves.toBe("draft");
     await expect(card(eng.page, "gain").count()).resolves.toBe(1);
+    // leave the demo team's chain list as the other browser tests expect it
+    expect((await eng.page.request.delete(`/api/chains/${chainId}`)).status()).toBe(200);
     await rev.context.close();
     await eng.context.close();
   });
