@@ -39,7 +39,8 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
           </div>
         </div>
       </header>
-      <main className="mx-auto w-full max-w-6xl flex-1 px-6 py-8">{children}</main>
+      {/* The chain workspace (marked data-workspace) uses the full width and height under the header. */}
+      <main className="mx-auto w-full max-w-6xl flex-1 px-6 py-8 has-[>[data-workspace]]:max-w-none has-[>[data-workspace]]:p-0">{children}</main>
     </div>
   );
 }

@@ -8,7 +8,6 @@ import { useMemo, useState } from "react";
 import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import { StatusMark, type Status } from "@/components/ui/status-mark";
 import { useEditor, useEditorActions } from "@/lib/store/editor-context";
-import { STAGE_CATALOG } from "@/lib/store/stage-catalog";
 import type { NodeKind } from "@/lib/chain/types";
 import { fmt, fmtVolts } from "@/components/editor/format";
 import { marginOf } from "@/components/editor/stage-figures";

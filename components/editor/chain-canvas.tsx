@@ -5,7 +5,7 @@
  * list is derived from it (plus the measured card sizes React Flow reports), and every change the canvas
  * makes goes back through store actions, so undo, autosave and analysis see it.
  */
-import { useCallback, useMemo, useRef, useState } from "react";
+import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import {
   Background,
   BackgroundVariant,
@@ -31,6 +31,17 @@ import { SHELF_DRAG_TYPE, toFlowNode, type ChainFlowEdge, type StageFlowNode } f
 
 type Measured = { width: number; height: number };
 
+const uiCache = new WeakMap<StageFlowNode, { sel: boolean; m: Measured | undefined; out: StageFlowNode }>();
+
+/** The flow node with selection and measured size; the same object while none of the three changes. */
+function withUi(src: StageFlowNode, sel: boolean, m: Measured | undefined): StageFlowNode {
+  const hit = uiCache.get(src);
+  if (hit && hit.sel === sel && hit.m === m) return hit.out;
+  const out = { ...src, selected: sel, ...(m ? { measured: m } : {}), deletable: false } as StageFlowNode;
+  uiCache.set(src, { sel, m, out });
+  return out;
+}
+
 export function ChainCanvas() {
   const docNodes = useEditor((s) => s.doc.nodes);
   const docEdges = useEditor((s) => s.doc.edges);
@@ -41,24 +52,13 @@ export function ChainCanvas() {
   const actions = useEditorActions();
   const rf = useReactFlow();
 
-  const measured = useRef(new Map<string, Measured>());
-  const [measureTick, setMeasureTick] = useState(0);
-  const uiCache = useRef(new Map<string, { src: StageFlowNode; sel: boolean; m: Measured | undefined; out: StageFlowNode }>());
+  /** card sizes React Flow measured, kept so the derived nodes carry them */
+  const [measured, setMeasured] = useState<Record<string, Measured>>({});
 
   const nodes = useMemo(() => {
-    void measureTick;
     const sel = new Set(selected);
-    return docNodes.map((d: DraftNode) => {
-      const src = toFlowNode(d);
-      const m = measured.current.get(d.id);
-      const isSel = sel.has(d.id);
-      const hit = uiCache.current.get(d.id);
-      if (hit && hit.src === src && hit.sel === isSel && hit.m === m) return hit.out;
-      const out = { ...src, selected: isSel, ...(m ? { measured: m } : {}), deletable: false } as StageFlowNode;
-      uiCache.current.set(d.id, { src, sel: isSel, m, out });
-      return out;
-    });
-  }, [docNodes, selected, measureTick]);
+    return docNodes.map((d: DraftNode) => withUi(toFlowNode(d), sel.has(d.id), measured[d.id]));
+  }, [docNodes, selected, measured]);
 
   const edges = useMemo<ChainFlowEdge[]>(() => {
     const sel = new Set(selectedEdges);
@@ -68,19 +68,27 @@ export function ChainCanvas() {
     });
   }, [docEdges, selectedEdges]);
 
+  // Keep a growing sketch in view: when a node is added, fit the chain once its card has been measured.
+  const count = docNodes.length;
+  const lastCount = useRef(count);
+  useEffect(() => {
+    if (count > lastCount.current) {
+      const t = setTimeout(() => void rf.fitView({ duration: 150, maxZoom: 1, padding: 0.15 }), 60);
+      lastCount.current = count;
+      return () => clearTimeout(t);
+    }
+    lastCount.current = count;
+  }, [count, rf]);
+
   const onNodesChange = useCallback(
     (changes: NodeChange<StageFlowNode>[]) => {
-      let dims = false;
+      let dims: Record<string, Measured> | null = null;
       const moves: Record<string, XY> = {};
       let final = false;
       let sel: Set<string> | null = null;
       for (const c of changes) {
         if (c.type === "dimensions" && c.dimensions) {
-          const prev = measured.current.get(c.id);
-          if (!prev || prev.width !== c.dimensions.width || prev.height !== c.dimensions.height) {
-            measured.current.set(c.id, { width: c.dimensions.width, height: c.dimensions.height });
-            dims = true;
-          }
+          (dims ??= {})[c.id] = { width: c.dimensions.width, height: c.dimensions.height };
         } else if (c.type === "position" && c.position) {
           moves[c.id] = { x: Math.round(c.position.x), y: Math.round(c.position.y) };
           if (!c.dragging) final = true;
@@ -92,7 +100,13 @@ export function ChainCanvas() {
           else sel.delete(c.id);
         }
       }
-      if (dims) setMeasureTick((t) => t + 1);
+      if (dims) {
+        const got = dims;
+        setMeasured((prev) => {
+          const changed = Object.entries(got).some(([id, m]) => prev[id]?.width !== m.width || prev[id]?.height !== m.height);
+          return changed ? { ...prev, ...got } : prev;
+        });
+      }
       if (Object.keys(moves).length) actions.moveNodes(moves, final);
       else if (final) actions.moveNodes({}, true);
       if (sel) actions.select([...sel], sel.size ? [] : store.getState().selectedEdges);
@@ -127,7 +141,7 @@ export function ChainCanvas() {
       if (!NODE_KINDS.includes(kind)) return;
       e.preventDefault();
       const p = rf.screenToFlowPosition({ x: e.clientX, y: e.clientY });
-      actions.addNode(kind, { x: Math.round(p.x - 107), y: Math.round(p.y - 40) });
+      actions.addNode(kind, { x: Math.round(p.x - 92), y: Math.round(p.y - 40) });
     },
     [actions, rf],
   );

@@ -154,7 +154,7 @@ function NodeSheet({ node, readOnly }: { node: DraftNode; readOnly: boolean }) {
               id="f-label"
               {...register("label")}
               placeholder={node.id}
-              className="rounded-card border border-paper-rule bg-paper-raised px-2 py-1 text-[13px] focus:border-accent-600 focus:outline-none"
+              className="w-full min-w-0 rounded-card border border-paper-rule bg-paper-raised px-2 py-1 text-[13px] focus:border-accent-600 focus:outline-none"
             />
           </div>
           <div className="h-1" />

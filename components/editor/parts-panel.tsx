@@ -4,7 +4,7 @@
  * when shared, exported or pasted elsewhere. Each figure is typed in engineering notation and checked
  * by the shared part schema; a figure left empty means ideal in that respect.
  */
-import { useEffect, useState } from "react";
+import { useState } from "react";
 import type { Part } from "@/lib/chain/types";
 import { partSchema } from "@/lib/chain/schema";
 import { parseQuantity, type QuantityUnit } from "@/lib/units";
@@ -98,8 +98,11 @@ function PartEditor({ partKey, part, readOnly }: { partKey: string; part: Part; 
   const initial = () => Object.fromEntries(PART_FIELDS.map((f) => [f.key, valueToText(part[f.key], f.unit)])) as Record<string, string>;
   const [texts, setTexts] = useState<Record<string, string>>(initial);
   const [label, setLabel] = useState(part.label ?? "");
-  // Undo and redo change the part under us: take the draft's figures when they differ from what reads.
-  useEffect(() => {
+  // Undo and redo change the part under us: take the draft's figures where they differ from what reads
+  // (adjusting state while rendering, so no effect runs a second render).
+  const [shownPart, setShownPart] = useState(part);
+  if (shownPart !== part) {
+    setShownPart(part);
     setTexts((prev) => {
       const next = { ...prev };
       for (const f of PART_FIELDS) {
@@ -109,8 +112,8 @@ function PartEditor({ partKey, part, readOnly }: { partKey: string; part: Part; 
       }
       return next;
     });
-    setLabel((l) => (l === (part.label ?? "") ? l : (part.label ?? "")));
-  }, [part]);
+    if (label !== (part.label ?? "")) setLabel(part.label ?? "");
+  }
 
   const change = (key: NumericPartKey, unit: QuantityUnit, text: string) => {
     setTexts((t) => ({ ...t, [key]: text }));

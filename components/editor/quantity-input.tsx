@@ -72,7 +72,7 @@ export const QuantityInput = forwardRef<HTMLInputElement, QuantityInputProps>(fu
           ) : (
             <span className="text-graphite-500">
               <span className="num" data-testid={`${id}-parsed`}>
-                = {formatQuantity(value, unit, 4)}
+                = {unit === "none" && Number.isInteger(value) && Math.abs(value) < 1e6 ? String(value) : formatQuantity(value, unit, 4)}
               </span>
               {hint && (
                 <>

@@ -8,7 +8,6 @@ import { memo } from "react";
 import { Handle, Position, type NodeProps } from "@xyflow/react";
 import type { NodeKind } from "@/lib/chain/types";
 import { cx } from "@/components/ui/cx";
-import { StatusMark } from "@/components/ui/status-mark";
 import { useEditor } from "@/lib/store/editor-context";
 import { STAGE_CATALOG, paramRule, paramUnit } from "@/lib/store/stage-catalog";
 import type { AdcResult, StageResult } from "@/lib/chain/types";
@@ -35,7 +34,7 @@ function CardShell({ props, children, status }: { props: CardProps; children: Re
   return (
     <div
       className={cx(
-        "w-[214px] rounded-card border bg-paper-raised px-2.5 pb-2 pt-1.5 text-graphite-900 shadow-card",
+        "w-[184px] rounded-card border bg-paper-raised px-2.5 pb-2 pt-1.5 text-graphite-900 shadow-card",
         props.selected ? "border-accent-600 ring-2 ring-accent-100" : "border-paper-rule",
         status === "clip" && "border-l-4 border-l-status-clip",
         status === "tight" && "border-l-4 border-l-status-tight",

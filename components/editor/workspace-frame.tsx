@@ -7,12 +7,12 @@ import { Pictogram } from "./pictograms";
 
 export function WorkspaceFrame() {
   return (
-    <div data-workspace className="flex h-[calc(100dvh-53px)] min-h-[600px] flex-col bg-paper" aria-busy="true">
+    <div data-workspace className="flex h-[calc(100dvh-57px)] min-h-[600px] flex-col bg-paper" aria-busy="true">
       <div className="flex items-center gap-3 border-b border-paper-rule bg-paper-raised px-3 py-1.5">
         <span className="h-4 w-56 rounded bg-paper-sunk" />
         <span className="text-[12.5px] text-graphite-500">Loading the chain…</span>
       </div>
-      <div className="grid min-h-0 flex-1 grid-cols-[176px_minmax(0,1fr)_336px]">
+      <div className="grid min-h-0 flex-1 grid-cols-[156px_minmax(0,1fr)_316px]">
         <aside className="border-r border-paper-rule bg-paper-sunk/40 p-2">
           <p className="px-1 text-[11px] font-semibold uppercase tracking-wide text-graphite-500">Shelf</p>
           {SHELF_ORDER.map((k) => (
@@ -22,7 +22,7 @@ export function WorkspaceFrame() {
             </div>
           ))}
         </aside>
-        <div className="grid min-h-0 grid-rows-[minmax(0,1fr)_300px]">
+        <div className="grid min-h-0 grid-rows-[minmax(0,1fr)_316px]">
           <div className="bg-[radial-gradient(#d6d2c8_1px,transparent_1px)] [background-size:20px_20px]" />
           <div className="border-t border-paper-rule bg-paper-raised" />
         </div>

@@ -4,7 +4,7 @@
  * headroom in a dock under the canvas. It owns the per-chain store, starts the live analysis and the
  * autosave, and handles the keyboard commands and the conflict choice.
  */
-import { useCallback, useEffect, useState } from "react";
+import { useCallback, useEffect, useRef, useState } from "react";
 import { useRouter } from "next/navigation";
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { ReactFlowProvider, useReactFlow } from "@xyflow/react";
@@ -53,7 +53,7 @@ function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
   const store = useEditorStoreApi();
   const actions = useEditorActions();
   const rf = useReactFlow();
-  const [autosave, setAutosave] = useState<Autosave | null>(null);
+  const autosave = useRef<Autosave | null>(null);
   const [tab, setTab] = useState<DockTab>("response");
   const [keysOpen, setKeysOpen] = useState(false);
 
@@ -63,7 +63,7 @@ function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
       const saved = await saveChain({ id, baseVersion, document });
       return { version: saved.version };
     });
-    setAutosave(auto);
+    autosave.current = auto;
     const beforeUnload = (e: BeforeUnloadEvent) => {
       const s = store.getState().save;
       if (s === "unsaved" || s === "saving" || s === "conflict" || s === "error") e.preventDefault();
@@ -96,7 +96,7 @@ function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
         case "selectAll": return actions.selectAll();
         case "deselect": return actions.select([]);
         case "connect": return void actions.connectSelected();
-        case "save": return void autosave?.flush();
+        case "save": return void autosave.current?.flush();
         case "fit": return void rf.fitView({ duration: 200, maxZoom: 1, padding: 0.12 });
         case "tidy":
           actions.tidy();
@@ -104,13 +104,12 @@ function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
           return;
         case "add": {
           const s = store.getState();
-          const id = actions.addNode(cmd.kind, undefined, { after: s.selected.length === 1 ? s.selected[0] : undefined });
-          if (id) setTimeout(() => focusNode(id), 30);
+          actions.addNode(cmd.kind, undefined, { after: s.selected.length === 1 ? s.selected[0] : undefined });
           return;
         }
       }
     },
-    [actions, autosave, rf, store, focusNode],
+    [actions, rf, store],
   );
 
   useEffect(() => {
@@ -128,15 +127,15 @@ function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
   }, [run]);
 
   return (
-    <div data-workspace className="flex h-[calc(100dvh-53px)] min-h-[600px] flex-col bg-paper" data-testid="workspace">
+    <div data-workspace className="flex h-[calc(100dvh-57px)] min-h-[600px] flex-col bg-paper" data-testid="workspace">
       <WorkspaceBar role={role} run={run} keysOpen={keysOpen} setKeysOpen={setKeysOpen} />
       <TeamTools />
       <Banners />
-      <div className="grid min-h-0 flex-1 grid-cols-[176px_minmax(0,1fr)_336px]">
+      <div className="grid min-h-0 flex-1 grid-cols-[156px_minmax(0,1fr)_316px]">
         <aside className="min-h-0 overflow-y-auto border-r border-paper-rule bg-paper-sunk/40">
           <Shelf />
         </aside>
-        <div className="grid min-h-0 grid-rows-[minmax(0,1fr)_300px]">
+        <div className="grid min-h-0 grid-rows-[minmax(0,1fr)_316px]">
           <div className="relative min-h-0">
             <ChainCanvas />
             <Notices />

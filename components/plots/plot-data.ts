@@ -144,7 +144,10 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
   });
   const shapes: Record<string, unknown>[] = [];
   const annotations: Record<string, unknown>[] = [];
-  for (const m of markers) {
+  let level = 0;
+  const sorted = [...markers].sort((a, b) => a.f - b.f);
+  let lastF = 0;
+  for (const m of sorted) {
     if (m.kind === "band") {
       shapes.push({ type: "rect", xref: "x", yref: "paper", x0: m.f, x1: m.f2, y0: 0, y1: 1, fillcolor: "#cfe3e1", opacity: 0.35, line: { width: 0 }, layer: "below" });
       continue;
@@ -152,7 +155,10 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
     const dash = m.kind === "corner" ? "dot" : m.kind === "nyquist" ? "dash" : "dashdot";
     const colour = m.kind === "corner" ? "#7b8088" : m.kind === "nyquist" ? "#24272c" : "#946019";
     shapes.push({ type: "line", xref: "x", yref: "paper", x0: m.f, x1: m.f, y0: 0, y1: 1, line: { color: colour, width: 1, dash } });
-    annotations.push({ x: Math.log10(m.f), xref: "x", y: 1, yref: "paper", yanchor: "bottom", text: m.label, showarrow: false, font: { size: 10, color: colour }, textangle: 0 });
+    // Labels of markers close together step down so they do not print over each other.
+    level = lastF > 0 && Math.log10(m.f / lastF) < 0.35 ? (level + 1) % 3 : 0;
+    lastF = m.f;
+    annotations.push({ x: Math.log10(m.f), xref: "x", y: 1, yref: "paper", yanchor: "top", yshift: -level * 12, text: m.label, showarrow: false, font: { size: 10, color: colour }, bgcolor: "rgba(251,250,247,0.85)" });
   }
   let top = -Infinity;
   let bottom = Infinity;
@@ -165,18 +171,19 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
   }
   const yRange = Number.isFinite(top) ? [Math.max(bottom, top - 140) - 5, top + 5] : undefined;
   const layout = {
-    margin: { l: 52, r: 14, t: 24, b: 38 },
+    margin: { l: 46, r: 12, t: 8, b: 34 },
     paper_bgcolor: "#fbfaf7",
     plot_bgcolor: "#fbfaf7",
     font: { family: "var(--font-geist-sans), system-ui, sans-serif", size: 11, color: "#3c4047" },
     showlegend: series.length > 1,
-    legend: { orientation: "h", x: 0, y: 1.08, xanchor: "left", yanchor: "bottom", font: { size: 10.5 } },
+    // inside the magnitude panel, lower left: a low-pass chain leaves that corner empty
+    legend: { orientation: "v", x: 0.005, y: 0.55, xanchor: "left", yanchor: "bottom", font: { size: 10 }, bgcolor: "rgba(251,250,247,0.8)", borderwidth: 0 },
     hovermode: "x",
     dragmode: "zoom",
     xaxis: {
       type: "log",
       anchor: "y2",
-      title: { text: "frequency (Hz)", standoff: 4 },
+      title: { text: "Hz", standoff: 2 },
       gridcolor: "#e3dfd6",
       zeroline: false,
       showspikes: true,
@@ -186,8 +193,8 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
       spikedash: "solid",
       exponentformat: "SI",
     },
-    yaxis: { domain: [0.53, 1], title: { text: "magnitude (dB)" }, gridcolor: "#e3dfd6", zerolinecolor: "#a1a5ab", range: yRange },
-    yaxis2: { domain: [0, 0.45], title: { text: "phase (°)" }, gridcolor: "#e3dfd6", zerolinecolor: "#a1a5ab", range: [-185, 185], tickvals: [-180, -90, 0, 90, 180] },
+    yaxis: { domain: [0.53, 1], title: { text: "dB", standoff: 4 }, gridcolor: "#e3dfd6", zerolinecolor: "#a1a5ab", range: yRange },
+    yaxis2: { domain: [0, 0.45], title: { text: "phase °", standoff: 4 }, gridcolor: "#e3dfd6", zerolinecolor: "#a1a5ab", range: [-185, 185], tickvals: [-180, -90, 0, 90, 180] },
     shapes,
     annotations,
     uirevision: "keep-zoom",

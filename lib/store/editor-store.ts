@@ -8,7 +8,7 @@
  */
 import { createStore, type StoreApi } from "zustand/vanilla";
 import type { NodeKind, Part, Position, Rails, Safety } from "@/lib/chain/types";
-import { checkConnection, tidyLayout, type ConnectionCheck } from "./graph";
+import { checkConnection, LAYOUT, tidyLayout, type ConnectionCheck } from "./graph";
 import { CLIP_STORAGE_KEY, makeClip, parseClip, pasteClip, type Clip } from "./clipboard";
 import { isOpAmpKind, lastUsedRails, nextNodeId, nextPartKey, type DraftDoc, type DraftNode, type ParamValue } from "./draft";
 import { STAGE_CATALOG } from "./stage-catalog";
@@ -439,15 +439,15 @@ function freeSpot(doc: DraftDoc): Position {
       yAtMax = p.y;
     }
   }
-  return { x: maxX + 260, y: yAtMax };
+  return { x: maxX + LAYOUT.columnGap, y: yAtMax };
 }
 
 /** Right of `after`; further down while that spot is taken (a fork's second branch). */
 function spotAfter(doc: DraftDoc, after: DraftNode): Position {
   const base = after.position ?? { x: 0, y: 0 };
-  const spot = { x: base.x + 260, y: base.y };
-  const taken = (p: Position) => doc.nodes.some((n) => n.position && Math.abs(n.position.x - p.x) < 200 && Math.abs(n.position.y - p.y) < 150);
-  while (taken(spot)) spot.y += 190;
+  const spot = { x: base.x + LAYOUT.columnGap, y: base.y };
+  const taken = (p: Position) => doc.nodes.some((n) => n.position && Math.abs(n.position.x - p.x) < LAYOUT.columnGap - 20 && Math.abs(n.position.y - p.y) < LAYOUT.rowGap - 40);
+  while (taken(spot)) spot.y += LAYOUT.rowGap;
   return spot;
 }
 

@@ -4,7 +4,7 @@
  * source or out of an ADC.
  */
 import type { Edge, Position } from "@/lib/chain/types";
-import type { DraftDoc, DraftNode } from "./draft";
+import type { DraftDoc } from "./draft";
 
 export type ConnectionCheck = { ok: true } | { ok: false; reason: string };
 
@@ -36,7 +36,7 @@ export function reaches(edges: Edge[], start: string, target: string): boolean {
   return false;
 }
 
-function adjacency(edges: Edge[]): Map<string, string[]> {
+function adjacency(edges: readonly Edge[]): Map<string, string[]> {
   const out = new Map<string, string[]>();
   for (const e of edges) {
     const list = out.get(e.from);
@@ -62,14 +62,15 @@ export function pathTo(doc: { nodes: readonly { id: string; kind: string }[]; ed
   return head?.kind === "source" ? path : [];
 }
 
-export const LAYOUT = { columnGap: 260, rowGap: 190, originX: 40, originY: 40 };
+/** Card pitch on the canvas (cards are 184 px wide), in flow units. */
+export const LAYOUT = { columnGap: 220, rowGap: 180, originX: 40, originY: 40 };
 
 /**
  * Tidy layout, left to right. Each node has at most one input, so the graph is a forest: columns are the
  * depth from a root, leaves take consecutive rows and a parent sits at the mean row of its children, so
  * fan-out reads as a fork. Trees are stacked top to bottom: the source's tree first, loose nodes after.
  */
-export function tidyLayout(doc: Pick<DraftDoc, "nodes" | "edges">): Record<string, Position> {
+export function tidyLayout(doc: { nodes: readonly { id: string; kind: string }[]; edges: readonly Edge[] }): Record<string, Position> {
   const children = adjacency(doc.edges);
   const hasInput = new Set(doc.edges.map((e) => e.to));
   const order = new Map(doc.nodes.map((n, i) => [n.id, i]));
@@ -109,6 +110,6 @@ export function tidyLayout(doc: Pick<DraftDoc, "nodes" | "edges">): Record<strin
   return result;
 }
 
-function rootRank(n: DraftNode): number {
+function rootRank(n: { kind: string }): number {
   return n.kind === "source" ? 0 : 1;
 }

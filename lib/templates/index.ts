@@ -57,10 +57,10 @@ export const TEMPLATES: ChainTemplate[] = [
       parts: { p1: { ...LOW_NOISE_BIPOLAR } },
       nodes: [
         { id: "src", kind: "source", label: "Accelerometer", params: { dc: 0, dcSpread: 0.005, amplitude: 0.2, fLow: 2, fHigh: 2000, resistance: 100, noiseDensity: 0, safety: "low-voltage" }, position: { x: 40, y: 40 } },
-        { id: "rc1", kind: "rcHighpass", label: "AC coupling", params: { c: 1e-6, r: 100e3, vbias: 0 }, position: { x: 300, y: 40 } },
-        { id: "u1", kind: "noninverting", label: "Gain", params: { rf: 39e3, rg: 10e3, vref: 0 }, part: "p1", rails: { low: -5, high: 5 }, position: { x: 560, y: 40 } },
-        { id: "u2", kind: "sallenKeyLowpass", label: "Anti-alias", params: { r1: 4.7e3, r2: 4.7e3, c1: 10e-9, c2: 4.7e-9, vref: 0 }, part: "p1", rails: { low: -5, high: 5 }, position: { x: 820, y: 40 } },
-        { id: "adc1", kind: "adc", params: { bits: 16, sampleRate: 25e3, vinLow: -4.096, vinHigh: 4.096, inputResistance: null }, position: { x: 1080, y: 40 } },
+        { id: "rc1", kind: "rcHighpass", label: "AC coupling", params: { c: 1e-6, r: 100e3, vbias: 0 }, position: { x: 260, y: 40 } },
+        { id: "u1", kind: "noninverting", label: "Gain", params: { rf: 39e3, rg: 10e3, vref: 0 }, part: "p1", rails: { low: -5, high: 5 }, position: { x: 480, y: 40 } },
+        { id: "u2", kind: "sallenKeyLowpass", label: "Anti-alias", params: { r1: 4.7e3, r2: 4.7e3, c1: 10e-9, c2: 4.7e-9, vref: 0 }, part: "p1", rails: { low: -5, high: 5 }, position: { x: 700, y: 40 } },
+        { id: "adc1", kind: "adc", params: { bits: 16, sampleRate: 25e3, vinLow: -4.096, vinHigh: 4.096, inputResistance: null }, position: { x: 920, y: 40 } },
       ],
       edges: [
         { from: "src", to: "rc1" },
@@ -82,10 +82,10 @@ export const TEMPLATES: ChainTemplate[] = [
       parts: { p1: { ...GENERAL_BIPOLAR }, p2: { ...LOW_NOISE_BIPOLAR } },
       nodes: [
         { id: "src", kind: "source", label: "Pressure bridge", params: { dc: 0.002, dcSpread: 0.003, amplitude: 0.02, fLow: 0, fHigh: 10, resistance: 350, noiseDensity: 0, safety: "low-voltage" }, position: { x: 40, y: 40 } },
-        { id: "u1", kind: "noninverting", label: "Bridge gain", params: { rf: 75e3, rg: 1e3, vref: 0 }, part: "p2", rails: { low: -12, high: 12 }, position: { x: 300, y: 40 } },
-        { id: "u2", kind: "lossyIntegrator", label: "Low-pass", params: { r1: 10e3, r2: 10e3, c2: 1e-6, vref: 0 }, part: "p1", rails: { low: -12, high: 12 }, position: { x: 560, y: 40 } },
-        { id: "rc1", kind: "rcLowpass", label: "Pin filter", params: { r: 1e3, c: 1e-6 }, position: { x: 820, y: 40 } },
-        { id: "adc1", kind: "adc", params: { bits: 16, sampleRate: 1000, vinLow: -2.5, vinHigh: 2.5, inputResistance: null }, position: { x: 1080, y: 40 } },
+        { id: "u1", kind: "noninverting", label: "Bridge gain", params: { rf: 75e3, rg: 1e3, vref: 0 }, part: "p2", rails: { low: -12, high: 12 }, position: { x: 260, y: 40 } },
+        { id: "u2", kind: "lossyIntegrator", label: "Low-pass", params: { r1: 10e3, r2: 10e3, c2: 1e-6, vref: 0 }, part: "p1", rails: { low: -12, high: 12 }, position: { x: 480, y: 40 } },
+        { id: "rc1", kind: "rcLowpass", label: "Pin filter", params: { r: 1e3, c: 1e-6 }, position: { x: 700, y: 40 } },
+        { id: "adc1", kind: "adc", params: { bits: 16, sampleRate: 1000, vinLow: -2.5, vinHigh: 2.5, inputResistance: null }, position: { x: 920, y: 40 } },
       ],
       edges: [
         { from: "src", to: "u1" },
@@ -106,12 +106,12 @@ export const TEMPLATES: ChainTemplate[] = [
       analysis: { ...BASE_ANALYSIS },
       parts: { p1: { ...RRIO_CMOS } },
       nodes: [
-        { id: "src", kind: "source", label: "Photodiode amplifier", params: { dc: 0.5, dcSpread: 0.1, amplitude: 0.05, fLow: 100, fHigh: 1000, resistance: 1000, noiseDensity: 0, safety: "low-voltage" }, position: { x: 40, y: 135 } },
-        { id: "rc1", kind: "rcHighpass", label: "To mid-rail", params: { c: 100e-9, r: 100e3, vbias: 1.65 }, position: { x: 300, y: 135 } },
-        { id: "u1", kind: "inverting", label: "Gain", params: { r1: 10e3, r2: 47e3, vref: 1.65 }, part: "p1", rails: { low: 0, high: 3.3 }, position: { x: 560, y: 135 } },
-        { id: "u2", kind: "mfbLowpass", label: "Anti-alias", params: { r1: 4.7e3, r2: 4.7e3, r3: 4.7e3, c1: 22e-9, c2: 4.7e-9, vref: 1.65 }, part: "p1", rails: { low: 0, high: 3.3 }, position: { x: 820, y: 40 } },
-        { id: "adc1", kind: "adc", label: "Filtered", params: { bits: 12, sampleRate: 20e3, vinLow: 0, vinHigh: 3.3, inputResistance: null }, position: { x: 1080, y: 40 } },
-        { id: "adc2", kind: "adc", label: "Wide", params: { bits: 12, sampleRate: 200e3, vinLow: 0, vinHigh: 3.3, inputResistance: null }, position: { x: 820, y: 230 } },
+        { id: "src", kind: "source", label: "Photodiode amplifier", params: { dc: 0.5, dcSpread: 0.1, amplitude: 0.05, fLow: 100, fHigh: 1000, resistance: 1000, noiseDensity: 0, safety: "low-voltage" }, position: { x: 40, y: 130 } },
+        { id: "rc1", kind: "rcHighpass", label: "To mid-rail", params: { c: 100e-9, r: 100e3, vbias: 1.65 }, position: { x: 260, y: 130 } },
+        { id: "u1", kind: "inverting", label: "Gain", params: { r1: 10e3, r2: 47e3, vref: 1.65 }, part: "p1", rails: { low: 0, high: 3.3 }, position: { x: 480, y: 130 } },
+        { id: "u2", kind: "mfbLowpass", label: "Anti-alias", params: { r1: 4.7e3, r2: 4.7e3, r3: 4.7e3, c1: 22e-9, c2: 4.7e-9, vref: 1.65 }, part: "p1", rails: { low: 0, high: 3.3 }, position: { x: 700, y: 40 } },
+        { id: "adc1", kind: "adc", label: "Filtered", params: { bits: 12, sampleRate: 20e3, vinLow: 0, vinHigh: 3.3, inputResistance: null }, position: { x: 920, y: 40 } },
+        { id: "adc2", kind: "adc", label: "Wide", params: { bits: 12, sampleRate: 200e3, vinLow: 0, vinHigh: 3.3, inputResistance: null }, position: { x: 700, y: 220 } },
       ],
       edges: [
         { from: "src", to: "rc1" },

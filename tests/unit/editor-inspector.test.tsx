@@ -1,6 +1,7 @@
 // @vitest-environment jsdom
 import { afterEach, describe, expect, it } from "vitest";
 import { act, cleanup, fireEvent, render, screen, waitFor } from "@testing-library/react";
+import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { Inspector } from "@/components/editor/inspector";
 import { EditorProvider } from "@/lib/store/editor-context";
 import { createEditorStore } from "@/lib/store/editor-store";
@@ -11,10 +12,14 @@ afterEach(cleanup);
 function setup(doc: Partial<DraftDoc>, select: string, readOnly = false) {
   const store = createEditorStore({ doc: { ...emptyDoc("Test"), ...doc }, readOnly });
   store.getState().actions.select([select]);
+  // The models panel also offers the team library (fetched with TanStack Query); here there is no server.
+  const queries = new QueryClient({ defaultOptions: { queries: { retry: false } } });
   render(
-    <EditorProvider store={store}>
-      <Inspector />
-    </EditorProvider>,
+    <QueryClientProvider client={queries}>
+      <EditorProvider store={store}>
+        <Inspector />
+      </EditorProvider>
+    </QueryClientProvider>,
   );
   return store;
 }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { createEditorStore } from "@/lib/store/editor-store";
 import { emptyDoc } from "@/lib/store/draft";
+import { LAYOUT } from "@/lib/store/graph";
 
 const fresh = (readOnly = false) => createEditorStore({ doc: emptyDoc("T"), chainId: "c1", version: 1, readOnly });
 
@@ -199,7 +200,7 @@ describe("createEditorStore: adding after a node", () => {
       { from: u1, to: rc },
       { from: rc, to: adc },
     ]);
-    expect(s.getState().doc.nodes.find((n) => n.id === u1)!.position).toEqual({ x: 260, y: 0 });
+    expect(s.getState().doc.nodes.find((n) => n.id === u1)!.position).toEqual({ x: LAYOUT.columnGap, y: 0 });
     // Nothing follows an ADC: the next node is placed but left unconnected.
     const loose = a.addNode("inverting", undefined, { after: adc })!;
     expect(s.getState().doc.edges.some((e) => e.to === loose)).toBe(false);
@@ -211,7 +212,7 @@ describe("createEditorStore: adding after a node", () => {
     a.addNode("source", { x: 0, y: 0 });
     a.addNode("adc", undefined, { after: "src" });
     const second = a.addNode("inverting", undefined, { after: "src" })!;
-    expect(s.getState().doc.nodes.find((n) => n.id === second)!.position).toEqual({ x: 260, y: 190 });
+    expect(s.getState().doc.nodes.find((n) => n.id === second)!.position).toEqual({ x: LAYOUT.columnGap, y: LAYOUT.rowGap });
     // the source feeds both (fan-out)
     expect(s.getState().doc.edges.filter((e) => e.from === "src")).toHaveLength(2);
   });

@@ -13,7 +13,8 @@ import { startMailStandin, type MailStandin } from "../../../scripts/mail-standi
  * links from the host it is reached by).
  */
 
-export const E2E_DIST_DIR = ".next-e2e";
+// E2E_DIST_DIR lets a helper build into its own folder while another build runs (default .next-e2e).
+export const E2E_DIST_DIR = process.env.E2E_DIST_DIR || ".next-e2e";
 const ROOT = path.resolve(__dirname, "../../..");
 
 export interface E2EServer {

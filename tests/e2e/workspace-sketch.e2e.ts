@@ -1,0 +1,145 @@
+import type { Browser } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
+import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { e2eContext } from "./support/context";
+import { card, createBlankChain, dragConnect, pressOnCanvas, selectCard, serverChain, typeInto, waitForPlot, waitForSaveState, waitForStatus } from "./workspace-support";
+
+const ctx = e2eContext();
+
+describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (production build)", () => {
+  let browser: Browser;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it("builds the demo chain from a blank sheet, finds the stage that clips at DC, fixes it, and finds it unchanged after a reload", async () => {
+    const { context, page } = await newSession(browser);
+    const errors: string[] = [];
+    page.on("pageerror", (e) => errors.push(e.message));
+    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
+    await page.waitForURL(/\/chains$/);
+    const id = await createBlankChain(page, "Shaft torque channel");
+    await expect(page.getByTestId("chain-name").textContent()).resolves.toBe("Shaft torque channel");
+
+    // Source by its key, the lossy integrator from the shelf (placed after the selected source and
+    // connected), the RC low-pass on its own, then a connection drawn with the mouse, then the ADC by key.
+    await pressOnCanvas(page, "1");
+    await card(page, "src").waitFor();
+    await page.getByTestId("shelf").getByRole("button", { name: /Lossy integrator/ }).click();
+    await card(page, "u1").waitFor();
+    await pressOnCanvas(page, "Escape");
+    await page.getByTestId("shelf").getByRole("button", { name: /RC low-pass/ }).click();
+    await card(page, "rc1").waitFor();
+    await pressOnCanvas(page, "f");
+    await page.waitForTimeout(400);
+    await dragConnect(page, "u1", "rc1");
+    await expect.poll(() => page.locator(".react-flow__edge").count()).toBe(2);
+    await selectCard(page, "rc1");
+    await pressOnCanvas(page, "0");
+    await card(page, "adc1").waitFor();
+    await expect.poll(() => page.locator(".react-flow__edge").count()).toBe(3);
+
+    // Values, typed in engineering notation.
+    await selectCard(page, "src");
+    await typeInto(page, "f-dc", "0.5");
+    await typeInto(page, "f-amplitude", "50m");
+    await typeInto(page, "f-fLow", "1");
+    await typeInto(page, "f-fHigh", "200");
+    await selectCard(page, "u1");
+    await typeInto(page, "f-r1", "10k");
+    await typeInto(page, "f-r2", "1M");
+    await typeInto(page, "f-c2", "1n");
+    await expect(page.getByTestId("f-r2-parsed").textContent()).resolves.toContain("1.000 MΩ");
+    await typeInto(page, "f-rails-low", "-5");
+    await typeInto(page, "f-rails-high", "5");
+    await selectCard(page, "rc1");
+    await typeInto(page, "f-r", "1k");
+    await typeInto(page, "f-c", "100n");
+    await selectCard(page, "adc1");
+    await typeInto(page, "f-bits", "16");
+    await typeInto(page, "f-sampleRate", "2k");
+    await typeInto(page, "f-vinLow", "-4.096");
+    await typeInto(page, "f-vinHigh", "4.096");
+
+    // The plot appears, and the integrator is flagged: gain −100 on 0.5 V of source DC wants −50 V.
+    await waitForPlot(page);
+    await waitForStatus(page, "u1", "clip");
+    await expect(page.getByTestId("headline").textContent()).resolves.toMatch(/1 stage hits a rail/);
+    await page.getByRole("tab", { name: /Findings/ }).click();
+    const clip = page.locator('[data-testid="findings"] [data-code="rail-clip"][data-node="u1"]');
+    await expect(clip.textContent()).resolves.toMatch(/source's DC/);
+    await selectCard(page, "u1");
+    await screenshot(page, "workspace-sketch-clipping");
+
+    // A finding selects its node.
+    await pressOnCanvas(page, "Escape");
+    await clip.click();
+    await expect.poll(() => page.getByTestId("inspector").getAttribute("data-node-id")).toBe("u1");
+
+    // Fix: r2 = 10k gives a DC gain of −1, so −0.5 V at DC.
+    await typeInto(page, "f-r2", "10k");
+    await waitForStatus(page, "u1", "ok");
+    await expect.poll(() => page.locator('[data-testid="findings"] [data-code="rail-clip"]').count()).toBe(0);
+    await expect(page.getByTestId("fig-dc").textContent()).resolves.toBe("-500 mV … -500 mV");
+    await page.getByRole("tab", { name: "Response" }).click();
+    await screenshot(page, "workspace-sketch-fixed");
+
+    await waitForSaveState(page, "saved");
+    const before = await serverChain(page, id);
+    expect(before.document.nodes.map((n) => n.id)).toEqual(["src", "u1", "rc1", "adc1"]);
+    expect(before.document.edges).toEqual([
+      { from: "src", to: "u1" },
+      { from: "u1", to: "rc1" },
+      { from: "rc1", to: "adc1" },
+    ]);
+    expect(before.document.nodes[1].params).toMatchObject({ r1: 10e3, r2: 10e3, c2: 1e-9 });
+
+    await page.reload();
+    await page.getByTestId("workspace").waitFor();
+    await waitForPlot(page);
+    await waitForStatus(page, "u1", "ok");
+    await selectCard(page, "u1");
+    await expect(page.locator("#f-r2").inputValue()).resolves.toBe("10k");
+    await expect(page.locator("#f-rails-low").inputValue()).resolves.toBe("-5");
+    await expect.poll(() => page.locator(".react-flow__edge").count()).toBe(3);
+    const after = await serverChain(page, id);
+    expect(after.document).toEqual(before.document);
+    expect(after.version).toBe(before.version);
+    await screenshot(page, "workspace-sketch-reloaded");
+    expect(errors).toEqual([]);
+    await context.close();
+  });
+
+  it("undoes and redoes, duplicates and deletes by keyboard, and keeps a half-drawn chain analysable", async () => {
+    const { context, page } = await newSession(browser);
+    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
+    await page.waitForURL(/\/chains$/);
+    await createBlankChain(page, "Keyboard sketch");
+    await pressOnCanvas(page, "1");
+    await pressOnCanvas(page, "2"); // non-inverting gain after the source
+    await card(page, "u1").waitFor();
+    await expect(card(page, "u1").textContent()).resolves.toMatch(/needs rails/);
+    await selectCard(page, "u1");
+    await typeInto(page, "f-rails-low", "-12");
+    await typeInto(page, "f-rails-high", "12");
+    await waitForStatus(page, "u1", "ok");
+    await pressOnCanvas(page, "Control+d");
+    await card(page, "u2").waitFor();
+    // the copy keeps the rails typed on the original
+    await selectCard(page, "u2");
+    await expect(page.locator("#f-rails-high").inputValue()).resolves.toBe("12");
+    await pressOnCanvas(page, "Delete");
+    await expect.poll(() => card(page, "u2").count()).toBe(0);
+    await pressOnCanvas(page, "Control+z");
+    await expect.poll(() => card(page, "u2").count()).toBe(1);
+    await pressOnCanvas(page, "Control+Shift+z");
+    await expect.poll(() => card(page, "u2").count()).toBe(0);
+    // With no converter yet, the plot follows the path to the last stage.
+    await waitForPlot(page);
+    await context.close();
+  });
+});
