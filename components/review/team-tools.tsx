@@ -6,7 +6,7 @@
  * refreshes the review state after each save, so an edit that sends an approved chain back to draft is
  * said at once.
  */
-import { useEffect, useRef, useState } from "react";
+import { useEffect, useLayoutEffect, useRef, useState } from "react";
 import Link from "next/link";
 import { useQueryClient } from "@tanstack/react-query";
 import { CommentsPanel } from "@/components/comments/comments-panel";
@@ -35,6 +35,16 @@ function TeamToolsFor({ chainId }: { chainId: string }) {
   const actions = useEditorActions();
   const qc = useQueryClient();
   const seen = useRef(version);
+  // The side panel opens under this strip (not over its buttons): measure where the strip ends.
+  const strip = useRef<HTMLDivElement>(null);
+  const [top, setTop] = useState(96);
+  useLayoutEffect(() => {
+    if (!tab || !strip.current) return;
+    const measure = () => setTop(Math.round(strip.current!.getBoundingClientRect().bottom + window.scrollY));
+    measure();
+    window.addEventListener("resize", measure);
+    return () => window.removeEventListener("resize", measure);
+  }, [tab]);
   useEffect(() => {
     if (seen.current === version) return;
     seen.current = version;
@@ -64,7 +74,7 @@ function TeamToolsFor({ chainId }: { chainId: string }) {
   );
   return (
     <>
-      <div className="flex items-center gap-2 border-b border-paper-rule bg-paper-raised px-3 py-1 text-[12.5px]" data-testid="team-tools">
+      <div ref={strip} className="flex items-center gap-2 border-b border-paper-rule bg-paper-raised px-3 py-1 text-[12.5px]" data-testid="team-tools">
         <span className="text-graphite-500">Review:</span>
         <ReviewBadge state={state} className="font-medium text-graphite-950" />
         {backToDraft && (
@@ -85,7 +95,8 @@ function TeamToolsFor({ chainId }: { chainId: string }) {
         <aside
           id="team-drawer"
           aria-label={tab === "review" ? "Review" : tab === "comments" ? "Comments" : "Sharing"}
-          className="fixed bottom-0 right-0 top-[57px] z-30 flex w-[360px] flex-col border-l border-paper-rule bg-paper-raised shadow-card"
+          style={{ top }}
+          className="fixed bottom-0 right-0 z-30 flex w-[360px] flex-col border-l border-paper-rule bg-paper-raised shadow-card"
         >
           <div className="flex items-center justify-between border-b border-paper-rule px-3 py-1.5">
             <h2 className="text-[13px] font-semibold text-graphite-950">{tab === "review" ? "Review" : tab === "comments" ? "Comments" : "Sharing"}</h2>
