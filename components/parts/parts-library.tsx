@@ -55,7 +55,7 @@ export function PartsLibrary({ teamId, parts, canEdit, limits }: { teamId: strin
         col.accessor((p) => (p.model as Record<string, number | undefined>)[key] ?? -Infinity, {
           id: key,
           header: FIGURES.find((f) => f.key === key)!.title,
-          cell: (c) => <span className="num">{fig(c.row.original.model, key)}</span>,
+          cell: (c) => <span className="num whitespace-nowrap">{fig(c.row.original.model, key)}</span>,
         }),
       ),
       col.display({

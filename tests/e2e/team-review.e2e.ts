@@ -148,7 +148,7 @@ describe.skipIf(ctx.skip !== null)("review by invitation, from draft to approved
     const rows = eng.page.getByTestId("revision-row");
     expect(await rows.count()).toBeGreaterThanOrEqual(2);
     await expect(rows.first().textContent()).resolves.toContain("rf");
-    await expect(eng.page.getByTestId("comparison").textContent()).resolves.toMatch(/10\.0 kΩ\s*→\s*30\.0 kΩ/);
+    await expect.poll(() => eng.page.getByTestId("comparison").textContent(), { timeout: 15_000 }).toMatch(/10\.0 kΩ\s*→\s*30\.0 kΩ/);
     await screenshot(eng.page, "team-history");
 
     // An edit after approval sends it back to draft and says so.
