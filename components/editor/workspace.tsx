@@ -78,7 +78,9 @@ function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
 
   const focusNode = useCallback(
     (id: string) => {
-      void rf.fitView({ nodes: [{ id }], duration: 250, maxZoom: 1, padding: 0.6 });
+      // Bring the node into the middle of the view at the present zoom, so the chain around it stays in sight.
+      const zoom = rf.getZoom();
+      void rf.fitView({ nodes: [{ id }], duration: 250, minZoom: zoom, maxZoom: zoom });
     },
     [rf],
   );
@@ -173,14 +175,19 @@ function WorkspaceBar({ role, run, keysOpen, setKeysOpen }: { role: ChainDto["ro
   const canUndo = useEditor((s) => s.past.length > 0);
   const canRedo = useEditor((s) => s.future.length > 0);
   const hasSel = useEditor((s) => s.selected.length > 0 || s.selectedEdges.length > 0);
+  // One string, so the bar re-renders only when a count changes.
   const counts = useEditor((s) => {
-    const w = s.live?.warnings ?? [];
-    const st = Object.values(s.live?.stageById ?? {}).map((x) => x.status);
-    const ad = Object.values(s.live?.adcById ?? {}).map((x) => x.status);
-    const all = [...st, ...ad];
-    return `${all.filter((x) => x === "clip").length}/${all.filter((x) => x === "tight").length}/${w.length}`;
+    const stages = Object.values(s.live?.stageById ?? {}).map((x) => x.status);
+    const adcs = Object.values(s.live?.adcById ?? {}).map((x) => x.status);
+    const n = (list: (string | undefined)[], st: string) => list.filter((x) => x === st).length;
+    return [n(stages, "clip"), n(adcs, "clip"), n(stages, "tight") + n(adcs, "tight")].join("/");
   });
-  const [clips, tights] = counts.split("/").map(Number);
+  const [clips, adcClips, tights] = counts.split("/").map(Number);
+  const plural = (k: number, one: string, many: string) => `${k} ${k === 1 ? one : many}`;
+  const worst = [
+    clips > 0 ? plural(clips, "stage hits a rail", "stages hit a rail") : null,
+    adcClips > 0 ? plural(adcClips, "converter over range", "converters over range") : null,
+  ].filter(Boolean);
   return (
     <div className="flex items-center gap-3 border-b border-paper-rule bg-paper-raised px-3 py-1.5">
       <h1 className="min-w-0 max-w-[22rem] truncate text-[15px] font-semibold text-graphite-950" data-testid="chain-name">
@@ -189,8 +196,8 @@ function WorkspaceBar({ role, run, keysOpen, setKeysOpen }: { role: ChainDto["ro
       <SaveIndicator />
       {readOnly && role && <span className="rounded-card border border-paper-rule px-1.5 py-0.5 text-[11.5px] text-graphite-700">you are a {ROLE_WORDS[role] ?? role}: viewing only</span>}
       <span className="text-[12.5px] text-graphite-700" data-testid="headline">
-        {clips > 0 ? (
-          <span><span aria-hidden className="text-status-clip">■ </span>{clips} {clips === 1 ? "stage hits a rail" : "stages hit a rail"}</span>
+        {worst.length > 0 ? (
+          <span><span aria-hidden className="text-status-clip">■ </span>{worst.join(" · ")}</span>
         ) : tights > 0 ? (
           <span><span aria-hidden className="text-status-tight">▲ </span>{tights} with little margin</span>
         ) : null}

@@ -124,24 +124,51 @@ export function withGaps(values: Float64Array, wrap: boolean): (number | null)[]
   return out;
 }
 
-/** Our own palette: the chosen node in the accent, the rest in muted tones that print apart. */
-export const SERIES_COLOURS = ["#3f5d85", "#946019", "#6b4a7a", "#5f6b2e", "#5a5f67", "#2f7d8c", "#8a5a44"];
+/** Our own palette: the chosen node in the accent, the other stages in a muted graphite. */
 export const ACCENT = "#1e6d6a";
+export const OTHERS_COLOUR = "#a1a5ab";
+/** `meta` of the grouped trace: its point index runs over the curves one after another, each f.length + 1 long. */
+export const GROUPED = "grouped";
+
+/** Frequency index of a hovered point, for a grouped trace or a single curve. */
+export function hoverIndex(pointIndex: number, meta: unknown, points: number): number {
+  return meta === GROUPED ? pointIndex % (points + 1) : pointIndex;
+}
 
 export interface Figure {
   data: Record<string, unknown>[];
   layout: Record<string, unknown>;
 }
 
+/**
+ * The Plotly figure. The chosen node's curve is drawn in the accent; every other stage on the path is
+ * drawn in one muted trace per panel (the curves one after another, separated by gaps), so the cost of a
+ * redraw does not grow with the number of stages. The cursor readout names each curve.
+ */
 export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64Array): Figure {
   const x = Array.from(f);
   const data: Record<string, unknown>[] = [];
-  series.forEach((s, i) => {
-    const colour = s.emphasis ? ACCENT : SERIES_COLOURS[i % SERIES_COLOURS.length];
-    const line = { color: colour, width: s.emphasis ? 2.4 : 1.2 };
+  const others = series.filter((s) => !s.emphasis);
+  const chosen = series.filter((s) => s.emphasis);
+  if (others.length) {
+    const gx: (number | null)[] = [];
+    const gm: (number | null)[] = [];
+    const gp: (number | null)[] = [];
+    for (const s of others) {
+      gx.push(...x, null);
+      gm.push(...withGaps(s.db, false), null);
+      gp.push(...withGaps(s.ph, true), null);
+    }
+    const line = { color: OTHERS_COLOUR, width: 1 };
+    const name = others.length === 1 ? others[0].name : `${others.length} other stages`;
+    data.push({ type: "scatter", mode: "lines", name, legendgroup: "others", x: gx, y: gm, xaxis: "x", yaxis: "y", line, hoverinfo: "none", meta: GROUPED });
+    data.push({ type: "scatter", mode: "lines", name, legendgroup: "others", showlegend: false, x: gx, y: gp, xaxis: "x", yaxis: "y2", line, hoverinfo: "none", meta: GROUPED });
+  }
+  for (const s of chosen) {
+    const line = { color: ACCENT, width: 2.4 };
     data.push({ type: "scatter", mode: "lines", name: s.name, legendgroup: s.id, x, y: withGaps(s.db, false), xaxis: "x", yaxis: "y", line, hoverinfo: "none" });
     data.push({ type: "scatter", mode: "lines", name: s.name, legendgroup: s.id, showlegend: false, x, y: withGaps(s.ph, true), xaxis: "x", yaxis: "y2", line, hoverinfo: "none" });
-  });
+  }
   const shapes: Record<string, unknown>[] = [];
   const annotations: Record<string, unknown>[] = [];
   let level = 0;
@@ -182,6 +209,9 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
     dragmode: "zoom",
     xaxis: {
       type: "log",
+      // a fixed range spares Plotly an autorange pass on every redraw
+      range: [Math.log10(f[0]), Math.log10(f[f.length - 1])],
+      autorange: false,
       anchor: "y2",
       title: { text: "Hz", standoff: 2 },
       gridcolor: "#e3dfd6",

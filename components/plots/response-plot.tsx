@@ -4,11 +4,11 @@
  * the chosen node (each stage's cascade up to it, or each stage on its own), with markers at corners, the
  * source band, Nyquist and the alias frequency, a readout at the cursor and CSV export of what is drawn.
  */
-import { useEffect, useMemo, useRef, useState } from "react";
+import { useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import { useEditor, useEditorActions } from "@/lib/store/editor-context";
 import type { PlotMode } from "@/lib/store/editor-store";
 import { pathTo } from "@/lib/store/graph";
-import { buildFigure, plotCsv, plotMarkers, plotSeries, readoutAt, type PlotInput } from "./plot-data";
+import { buildFigure, hoverIndex, plotCsv, plotMarkers, plotSeries, readoutAt, type PlotInput } from "./plot-data";
 import { loadPlotly, type PlotlyLike } from "./plotly-loader";
 
 /** The node the plot follows: the selected node when it is analysed, else the chosen path's end. */
@@ -57,6 +57,7 @@ export function ResponsePlot() {
   }, [live, target, mode]);
 
   const series = useMemo(() => (input ? plotSeries(input) : []), [input]);
+  const pointsRef = useRef(0);
   const markers = useMemo(() => (input ? plotMarkers(input) : []), [input]);
 
   useEffect(() => {
@@ -76,12 +77,15 @@ export function ResponsePlot() {
     };
   }, []);
 
-  useEffect(() => {
+  // Drawn in a layout effect: the new curves reach the screen in the same frame as the cards.
+  useLayoutEffect(() => {
     const node = el.current;
     const p = plotly.current;
     if (!ready || !node || !p || !input) return;
-    const fig = buildFigure(series, markers, input.curves.f);
+    pointsRef.current = input.curves.f.length;
     const rev = live?.rev;
+    performance.mark(`cw:plot-start:${rev}`);
+    const fig = buildFigure(series, markers, input.curves.f);
     void p.react(node, fig.data, fig.layout, { displaylogo: false, responsive: true, modeBarButtonsToRemove: ["select2d", "lasso2d", "toImage"] }).then(() => {
       // For the browser benchmark: the plot of analysis revision N is drawn.
       performance.mark(`cw:plot:${rev}`);
@@ -89,12 +93,13 @@ export function ResponsePlot() {
   }, [ready, input, series, markers, live?.rev]);
 
   useEffect(() => {
-    const node = el.current as (HTMLDivElement & { on?: (ev: string, fn: (d: { points?: { pointIndex?: number; pointNumber?: number }[] }) => void) => void }) | null;
+    const node = el.current as (HTMLDivElement & { on?: (ev: string, fn: (d: { points?: { pointIndex?: number; pointNumber?: number; data?: { meta?: unknown } }[] }) => void) => void }) | null;
     if (!ready || !node?.on) return;
     node.on("plotly_hover", (d) => {
       const pt = d.points?.[0];
-      const k = pt?.pointIndex ?? pt?.pointNumber;
-      if (typeof k === "number") setHoverK(k);
+      const p = pt?.pointIndex ?? pt?.pointNumber;
+      const n = pointsRef.current;
+      if (typeof p === "number" && n > 0) setHoverK(hoverIndex(p, pt?.data?.meta, n));
     });
     node.on("plotly_unhover", () => setHoverK(null));
   }, [ready, input !== null]); // eslint-disable-line react-hooks/exhaustive-deps

@@ -96,7 +96,8 @@ export function startAnalysis(store: EditorStore, runners: { quick: TierRunner; 
 
   const publish = () => {
     if (!lastQuick || stopped) return;
-    store.getState().actions.setLive(assembleLive(lastQuick.doc, lastQuick.rev, lastQuick.tier, lastFull));
+    const s = store.getState();
+    s.actions.setLive(assembleLive(lastQuick.doc, lastQuick.rev, lastQuick.tier, lastFull, s.live));
   };
 
   const sendQuick = (doc: DraftDoc, r: number) => {

@@ -133,8 +133,23 @@ export function fullTier(doc: DraftDoc): FullTier {
 
 const NODE_PATH = /^nodes\[(\d+)\]/;
 
-/** Index the tiers' results for the workspace. `full` is used only when it belongs to `doc`. */
-export function assembleLive(doc: DraftDoc, rev: number, quick: QuickTier, full: { doc: DraftDoc; tier: FullTier } | null): LiveAnalysis {
+/** `next`, or `prev` when the two hold the same values: unchanged figures keep their object. */
+function keep<T>(prev: T | undefined, next: T): T {
+  return prev !== undefined && JSON.stringify(prev) === JSON.stringify(next) ? prev : next;
+}
+
+/**
+ * Index the tiers' results for the workspace. `full` is used only when it belongs to `doc`. With `prev`
+ * (the analysis on screen), stage and converter figures that did not change keep their objects, so only
+ * the cards whose figures moved render again.
+ */
+export function assembleLive(
+  doc: DraftDoc,
+  rev: number,
+  quick: QuickTier,
+  full: { doc: DraftDoc; tier: FullTier } | null,
+  prev?: LiveAnalysis | null,
+): LiveAnalysis {
   const fullResult = full && full.doc === doc ? full.tier.result : null;
   const out: LiveAnalysis = {
     doc,
@@ -168,10 +183,10 @@ export function assembleLive(doc: DraftDoc, rev: number, quick: QuickTier, full:
     for (const p of fullResult?.paths ?? []) if (p.adc) fullAdc.set(p.adc.id, p.adc);
     for (const p of r.paths) {
       out.paths.push(p.nodes);
-      for (const s of p.stages) out.stageById[s.id] ??= s;
+      for (const s of p.stages) out.stageById[s.id] ??= keep(prev?.stageById[s.id], s);
       if (p.adc && !out.adcById[p.adc.id]) {
         const f = fullAdc.get(p.adc.id);
-        out.adcById[p.adc.id] = { ...p.adc, snrDb: f ? f.snrDb : null, enob: f ? f.enob : null };
+        out.adcById[p.adc.id] = keep(prev?.adcById[p.adc.id], { ...p.adc, snrDb: f ? f.snrDb : null, enob: f ? f.enob : null });
       }
     }
     out.warnings = fullResult ? fullResult.warnings : r.warnings;

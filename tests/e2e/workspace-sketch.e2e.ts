@@ -68,7 +68,9 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
     // The plot appears, and the integrator is flagged: gain −100 on 0.5 V of source DC wants −50 V.
     await waitForPlot(page);
     await waitForStatus(page, "u1", "clip");
-    await expect(page.getByTestId("headline").textContent()).resolves.toMatch(/1 stage hits a rail/);
+    // …and so is the converter it drives, whose input is driven far past its range
+    await waitForStatus(page, "adc1", "clip");
+    await expect(page.getByTestId("headline").textContent()).resolves.toBe("■ 1 stage hits a rail · 1 converter over range");
     await page.getByRole("tab", { name: /Findings/ }).click();
     const clip = page.locator('[data-testid="findings"] [data-code="rail-clip"][data-node="u1"]');
     await expect(clip.textContent()).resolves.toMatch(/source's DC/);
@@ -83,7 +85,9 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
     // Fix: r2 = 10k gives a DC gain of −1, so −0.5 V at DC.
     await typeInto(page, "f-r2", "10k");
     await waitForStatus(page, "u1", "ok");
+    await waitForStatus(page, "adc1", "ok");
     await expect.poll(() => page.locator('[data-testid="findings"] [data-code="rail-clip"]').count()).toBe(0);
+    await expect(page.getByTestId("headline").textContent()).resolves.toBe("");
     await expect(page.getByTestId("fig-dc").textContent()).resolves.toBe("-500 mV … -500 mV");
     await page.getByRole("tab", { name: "Response" }).click();
     await screenshot(page, "workspace-sketch-fixed");

@@ -49,13 +49,14 @@ export async function waitForSaveState(page: Page, state: string, timeout = 15_0
   await expect.poll(() => page.getByTestId("save-state").getAttribute("data-state"), { timeout }).toBe(state);
 }
 
-/** The plot has drawn at least one line (a flat line has no height, so this checks its path data). */
+/** The plot has drawn at least one line (a flat line has no height, so this checks its path data; Plotly
+ * draws a straight line with two points only). */
 export async function waitForPlot(page: Page): Promise<void> {
   await expect
     .poll(
       () =>
         page.evaluate(() =>
-          [...document.querySelectorAll('[data-testid="plot-area"][data-ready="1"] .scatterlayer path.js-line')].some((p) => (p.getAttribute("d") ?? "").length > 20),
+          [...document.querySelectorAll('[data-testid="plot-area"][data-ready="1"] .scatterlayer path.js-line')].some((p) => /^M[^L]+L/.test(p.getAttribute("d") ?? "")),
         ),
       { timeout: 30_000 },
     )

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import Papa from "papaparse";
-import { buildFigure, dbPhase, plotCsv, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
+import { ACCENT, GROUPED, buildFigure, dbPhase, hoverIndex, plotCsv, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
 import type { LiveCurves } from "@/lib/store/live-analysis";
 import type { StageResult } from "@/lib/chain/types";
 
@@ -91,11 +91,31 @@ describe("buildFigure", () => {
     const fig = buildFigure(s, plotMarkers(input()), f);
     expect(fig.data).toHaveLength(4);
     expect(fig.data.map((d) => d.yaxis)).toEqual(["y", "y2", "y", "y2"]);
+    // the chosen node (adc) is drawn last, in the accent
+    expect((fig.data[2].line as { color: string }).color).toBe(ACCENT);
+    expect(fig.data[2].y).toEqual(withGaps(s[1].db, false));
     expect(new Set(fig.data.map((d) => d.xaxis))).toEqual(new Set(["x"]));
     const layout = fig.layout as { xaxis: { type: string }; shapes: unknown[]; yaxis: { domain: number[] }; yaxis2: { domain: number[] } };
     expect(layout.xaxis.type).toBe("log");
     expect(layout.yaxis.domain[0]).toBeGreaterThan(layout.yaxis2.domain[1]);
     expect(layout.shapes).toHaveLength(4);
+  });
+});
+
+describe("buildFigure with many stages", () => {
+  it("draws every other stage in one muted trace per panel, curves separated by gaps", () => {
+    const many = { ...curves, index: { ...curves.index, u2: 1, u3: 1 } };
+    const s = plotSeries(input({ curves: many, path: ["src", "u1", "u2", "u3", "adc"], stages: { u1, u2: u1, u3: u1 } }));
+    expect(s).toHaveLength(4);
+    const fig = buildFigure(s, [], f);
+    expect(fig.data).toHaveLength(4);
+    const grouped = fig.data[0] as { x: (number | null)[]; y: (number | null)[]; meta: unknown };
+    expect(grouped.x).toHaveLength(3 * (f.length + 1));
+    expect(grouped.x[f.length]).toBeNull();
+    expect(grouped.meta).toBe(GROUPED);
+    // a hovered point of the third grouped curve maps back to its frequency index
+    expect(hoverIndex(2 * (f.length + 1) + 3, GROUPED, f.length)).toBe(3);
+    expect(hoverIndex(3, undefined, f.length)).toBe(3);
   });
 });
 

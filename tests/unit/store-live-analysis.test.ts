@@ -62,6 +62,16 @@ describe("assembleLive", () => {
     expect(ready.adcById.adc1.enob).toBeGreaterThan(6);
   });
 
+  it("keeps the objects of figures that did not change, so only the changed cards render again", () => {
+    const doc = bridge();
+    const first = analyseDraft(doc);
+    const edited = { ...doc, nodes: doc.nodes.map((n) => (n.id === "rc1" ? { ...n, params: { ...n.params, r: 2.2e3 } } : n)) };
+    const second = assembleLive(edited, 2, quickTier(edited), null, first);
+    expect(second.stageById.u1).toBe(first.stageById.u1); // upstream of the edit: same figures, same object
+    expect(second.stageById.rc1).not.toBe(first.stageById.rc1);
+    expect(second.stageById.rc1.f0).not.toBe(first.stageById.rc1.f0);
+  });
+
   it("flags the clipping stage of a chain with a large DC gain", () => {
     const doc = bridge();
     doc.nodes[1].params.rf = 1e6; // gain 1001 on a 2 mV ± 3 mV bridge offset: about 2 to 5 V at DC, on ±12 V

@@ -4,6 +4,7 @@ import { createWriteStream, existsSync, mkdirSync, mkdtempSync, readFileSync, rm
 import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import path from "node:path";
+import { fileURLToPath } from "node:url";
 import { startMailStandin, type MailStandin } from "../../../scripts/mail-standin";
 
 /**
@@ -15,7 +16,8 @@ import { startMailStandin, type MailStandin } from "../../../scripts/mail-standi
 
 // E2E_DIST_DIR lets a helper build into its own folder while another build runs (default .next-e2e).
 export const E2E_DIST_DIR = process.env.E2E_DIST_DIR || ".next-e2e";
-const ROOT = path.resolve(__dirname, "../../..");
+// import.meta.url rather than __dirname, so the harness also runs outside vitest (npm run bench:ui under tsx)
+const ROOT = fileURLToPath(new URL("../../..", import.meta.url));
 
 export interface E2EServer {
   baseUrl: string;
