@@ -42,8 +42,8 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
     const { context, page } = await newSession(browser);
     await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
     await page.waitForURL(/\/chains$/);
+    // Other browser-test files share this server and may have added chains: check the seeded ones are there.
     const rows = await chainListRows(page);
-    expect(rows).toHaveLength(3);
     const text = rows.join("\n");
     expect(text).toContain("Hull vibration channel, aft bay");
     expect(text).toContain("Ballast tank pressure bridge");
@@ -84,8 +84,8 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
     await signInWithPassword(page, DEMO_PEOPLE.outsider.email, DEMO_PASSWORD);
     await page.waitForURL(/\/chains$/);
     const rows = await chainListRows(page);
-    expect(rows).toHaveLength(1);
-    const row = rows[0];
+    const row = rows.find((r) => r.includes("Hull vibration channel, aft bay")) ?? "";
+    expect(rows.join("\n")).not.toMatch(/Ballast tank pressure bridge|Turbidity photodiode channel/);
     expect(row).toContain("Hull vibration channel, aft bay");
     expect(row).toContain("Viewer");
     await context.close();
@@ -108,8 +108,9 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
     await page.goto(link);
     await page.waitForURL(/\/chains$/);
     const rows = await chainListRows(page);
-    expect(rows).toHaveLength(3);
-    expect(rows.every((r) => r.includes("Reviewer"))).toBe(true);
+    for (const name of ["Hull vibration channel, aft bay", "Ballast tank pressure bridge", "Turbidity photodiode channel"]) {
+      expect(rows.find((r) => r.includes(name))).toContain("Reviewer");
+    }
 
     // a used link no longer works, and says so plainly
     const { context: other, page: second } = await newSession(browser);
