@@ -17,5 +17,5 @@ export function proxy(request: NextRequest) {
 }
 
 export const config = {
-  matcher: ["/chains/:path*", "/chains", "/teams/:path*", "/teams", "/settings/:path*", "/settings"],
+  matcher: ["/chains/:path*", "/chains", "/teams/:path*", "/teams", "/settings/:path*", "/settings", "/parts/:path*", "/parts"],
 };

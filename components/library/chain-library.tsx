@@ -93,8 +93,8 @@ export function ChainLibrary({ rows, total, page, pageSize, facets, creatableTea
       col.accessor("owners", { header: "Owner", enableSorting: false, cell: (c) => c.getValue() ?? "—" }),
       col.accessor("role", { header: "Your role", enableSorting: false, cell: (c) => (c.getValue() ? ROLE_WORDS[c.getValue()!] : "—") }),
       col.accessor("reviewState", { header: "Review", cell: (c) => <ReviewBadge state={c.getValue()} /> }),
-      col.accessor("worstStatus", { header: "Headroom", cell: (c) => <StatusMark status={c.getValue()} /> }),
-      col.accessor("updatedAt", { header: "Last saved (UTC)", cell: (c) => <span className="num text-graphite-500">{shortTime(c.getValue())}</span> }),
+      col.accessor("worstStatus", { header: "Headroom", cell: (c) => <StatusMark status={c.getValue()} className="whitespace-nowrap" /> }),
+      col.accessor("updatedAt", { header: "Last saved (UTC)", cell: (c) => <span className="num whitespace-nowrap text-graphite-500">{shortTime(c.getValue())}</span> }),
       col.display({
         id: "commands",
         header: () => <span className="sr-only">Commands</span>,

@@ -51,6 +51,15 @@ function TeamToolsFor({ chainId }: { chainId: string }) {
     void qc.invalidateQueries({ queryKey: teamKeys.reviews(chainId) });
   }, [version, chainId, qc]);
 
+  // A comment mail links to /chains/ID?stage=NODE#thread-…: open that stage's threads on arrival.
+  useEffect(() => {
+    const stage = new URL(window.location.href).searchParams.get("stage");
+    if (!stage) return;
+    actions.select([stage]);
+    setFocusStage(stage);
+    setTab("comments");
+  }, [actions]);
+
   const state = reviews.data?.reviewState ?? "draft";
   const lastClosed = reviews.data?.rounds.find((r) => !r.open);
   const backToDraft = state === "draft" && lastClosed?.closedReason === "edited-after-approval";

@@ -5,6 +5,7 @@
  */
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { firstLink } from "../../lib/mail/mailbox";
 import { DEMO_PASSWORD, DEMO_PEOPLE, mailFor, signInWithPassword, waitForLink } from "./support/auth";
 import { launchBrowser, newSession, screenshot } from "./support/browser";
 import { e2eContext } from "./support/context";
@@ -110,13 +111,18 @@ describe.skipIf(ctx.skip !== null)("review by invitation, from draft to approved
     await rev.page.getByRole("button", { name: "Request changes" }).click();
     await expect.poll(() => rev.page.getByTestId("review-state").first().getAttribute("data-state")).toBe("changes-requested");
     await screenshot(rev.page, "team-changes-requested");
-    await waitForMail(engineerEmail, new RegExp(`^New comment on gain · ${chainName}`));
+    const commentMail = await waitForMail(engineerEmail, new RegExp(`^New comment on gain · ${chainName}`));
     await waitForMail(engineerEmail, new RegExp(`^Changes requested: ${chainName}`));
 
-    // The engineer sees the marker, reads the thread, raises the gain; the chain saves.
-    await eng.page.reload();
+    // The engineer follows the comment mail's link: the workspace opens on the gain stage's threads.
+    const threadLink = firstLink(commentMail)!;
+    expect(threadLink).toContain(`/chains/${chainId}?stage=gain#thread-`);
+    await eng.page.goto(threadLink);
     await eng.page.getByTestId("workspace").waitFor();
     await expect.poll(() => eng.page.getByTestId("review-state").first().getAttribute("data-state")).toBe("changes-requested");
+    await eng.page.getByTestId("comments-panel").getByText("Threads on gain").waitFor();
+    await eng.page.getByRole("button", { name: "Close the panel" }).click();
+    // the marker on the card opens the same threads
     await eng.page.locator('[data-testid="comment-marker"][data-node="gain"]').click();
     await expect(eng.page.getByTestId("comment-body").first().textContent()).resolves.toContain("take 4");
     await eng.page.locator('[id^="reply-"]').first().fill("Done: rf is 30k now, gain 4.");
