@@ -1,6 +1,6 @@
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { chainListRows, DEMO_PASSWORD, DEMO_PEOPLE, mailFor, requestSignInLink, signInWithPassword, signOut, waitForLink } from "./support/auth";
+import { chainListRows, DEMO_PASSWORD, DEMO_PEOPLE, mailFor, requestSignInLink, signInWithPassword, signOut, uniqueEmail, waitForLink } from "./support/auth";
 import { launchBrowser, newSession, screenshot } from "./support/browser";
 import { e2eContext } from "./support/context";
 
@@ -124,7 +124,7 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
 
   it("signs up a new user through the e-mail link, gives them a workspace, and their password works after", async () => {
     const { context, page } = await newSession(browser);
-    const email = `new.${Date.now()}@e2e.example`;
+    const email = uniqueEmail("newcomer");
     const password = "a-long-enough-password";
     await page.goto("/sign-up");
     await page.getByLabel("Name").fill("Nadia Newcomer");

@@ -57,3 +57,8 @@ export async function chainListRows(page: Page): Promise<string[]> {
   await list.waitFor();
   return list.locator("tbody tr").allTextContents();
 }
+
+/** An address no other test (or earlier run) uses, for sign-ups and invitations. */
+export function uniqueEmail(label: string): string {
+  return `${label}.${Date.now().toString(36)}.${Math.random().toString(36).slice(2, 8)}@e2e.example`;
+}
