@@ -7,7 +7,6 @@
 import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { QueryClient, QueryClientProvider, useQuery } from "@tanstack/react-query";
-import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { fetchJson, problemText } from "@/components/team/fetch-json";
 import { shortTime } from "@/components/review/review-words";

@@ -33,7 +33,7 @@ export function InvitationSignUp({ token, email }: { token: string; email: strin
 }
 
 export function AcceptInvitation({ token }: { token: string }) {
-  const [state, action, pending] = useActionState<InvitationFormState, FormData>(acceptInvitationAction.bind(null, token), {});
+  const [state, action, pending] = useActionState<InvitationFormState, FormData>(() => acceptInvitationAction(token), {});
   return (
     <form action={action} className="flex flex-col gap-3">
       {state.error ? <Notice tone="problem">{state.error}</Notice> : null}

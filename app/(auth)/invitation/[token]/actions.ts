@@ -17,7 +17,8 @@ export interface InvitationFormState {
 }
 
 /** Accept as the signed-in user (the address must be the invited one). */
-export async function acceptInvitationAction(token: string, _prev?: InvitationFormState, _form?: FormData): Promise<InvitationFormState> {
+// The form state and data that useActionState passes in are not needed: the token says it all.
+export async function acceptInvitationAction(token: string): Promise<InvitationFormState> {
   const user = await getCurrentUser();
   if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(`/invitation/${token}`)}`);
   const result = acceptFor(token, user);
