@@ -69,11 +69,11 @@ function Values({ kind, params }: { kind: NodeKind; params: StageFlowNode["data"
   const spec = STAGE_CATALOG[kind];
   return (
     <dl className="num mt-1 grid grid-cols-2 gap-x-2 text-[11px] leading-4">
-      {spec.cardFields.map((key) => {
+      {spec.cardFields.map(([key, short]) => {
         const v = params[key];
         return (
-          <div key={key} className="flex justify-between gap-1">
-            <dt className="text-graphite-500">{key}</dt>
+          <div key={key} className="flex min-w-0 justify-between gap-1">
+            <dt className="text-graphite-500">{short}</dt>
             <dd className="text-graphite-950">{typeof v === "number" ? fmtCompact(v, paramUnit(kind, key)) : v === null ? "none" : "—"}</dd>
           </div>
         );

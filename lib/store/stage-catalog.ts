@@ -30,8 +30,8 @@ export interface KindSpec {
   fields: FieldSpec[];
   /** values of a newly placed node; rails are never pre-set here (they come from the chain's last used) */
   starter: Record<string, number | string | null>;
-  /** fields shown on the card, in order */
-  cardFields: string[];
+  /** fields shown on the card, in order, as [param, short name on the card] */
+  cardFields: [string, string][];
 }
 
 const R = (key: string, label = key): FieldSpec => ({ key, label, preferred: true });
@@ -54,7 +54,7 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
       { key: "noiseDensity", label: "Noise density" },
     ],
     starter: { dc: 0, amplitude: 0.1, fLow: 1, fHigh: 1000, safety: "low-voltage" },
-    cardFields: ["dc", "amplitude", "fLow", "fHigh"],
+    cardFields: [["dc", "dc"], ["amplitude", "peak"], ["fLow", "fLow"], ["fHigh", "fHigh"]],
   },
   inverting: {
     kind: "inverting",
@@ -63,7 +63,7 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
     opAmp: true,
     fields: [R("r1"), R("r2"), VREF()],
     starter: { r1: 10e3, r2: 10e3 },
-    cardFields: ["r1", "r2"],
+    cardFields: [["r1", "r1"], ["r2", "r2"]],
   },
   noninverting: {
     kind: "noninverting",
@@ -76,7 +76,7 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
       VREF(),
     ],
     starter: { rf: 10e3, rg: 10e3 },
-    cardFields: ["rf", "rg"],
+    cardFields: [["rf", "rf"], ["rg", "rg"]],
   },
   lossyIntegrator: {
     kind: "lossyIntegrator",
@@ -85,7 +85,7 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
     opAmp: true,
     fields: [R("r1"), R("r2"), C("c2"), VREF()],
     starter: { r1: 10e3, r2: 100e3, c2: 10e-9 },
-    cardFields: ["r1", "r2", "c2"],
+    cardFields: [["r1", "r1"], ["r2", "r2"], ["c2", "c2"]],
   },
   integrator: {
     kind: "integrator",
@@ -94,7 +94,7 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
     opAmp: true,
     fields: [R("r1"), C("c2"), VREF()],
     starter: { r1: 10e3, c2: 100e-9 },
-    cardFields: ["r1", "c2"],
+    cardFields: [["r1", "r1"], ["c2", "c2"]],
   },
   rcLowpass: {
     kind: "rcLowpass",
@@ -103,7 +103,7 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
     opAmp: false,
     fields: [R("r"), C("c")],
     starter: { r: 10e3, c: 10e-9 },
-    cardFields: ["r", "c"],
+    cardFields: [["r", "r"], ["c", "c"]],
   },
   rcHighpass: {
     kind: "rcHighpass",
@@ -112,7 +112,7 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
     opAmp: false,
     fields: [C("c"), R("r"), VREF("vbias")],
     starter: { c: 1e-6, r: 100e3 },
-    cardFields: ["c", "r"],
+    cardFields: [["c", "c"], ["r", "r"]],
   },
   sallenKeyLowpass: {
     kind: "sallenKeyLowpass",
@@ -121,7 +121,7 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
     opAmp: true,
     fields: [R("r1"), R("r2"), C("c1"), C("c2"), VREF()],
     starter: { r1: 10e3, r2: 10e3, c1: 22e-9, c2: 10e-9 },
-    cardFields: ["r1", "r2", "c1", "c2"],
+    cardFields: [["r1", "r1"], ["r2", "r2"], ["c1", "c1"], ["c2", "c2"]],
   },
   mfbLowpass: {
     kind: "mfbLowpass",
@@ -130,7 +130,7 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
     opAmp: true,
     fields: [R("r1"), R("r2"), R("r3"), C("c1"), C("c2"), VREF()],
     starter: { r1: 10e3, r2: 10e3, r3: 10e3, c1: 22e-9, c2: 2.2e-9 },
-    cardFields: ["r1", "r2", "r3", "c1", "c2"],
+    cardFields: [["r1", "r1"], ["r2", "r2"], ["r3", "r3"], ["c1", "c1"], ["c2", "c2"]],
   },
   adc: {
     kind: "adc",
@@ -145,7 +145,7 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
       { key: "inputResistance", label: "Input resistance" },
     ],
     starter: { bits: 16, sampleRate: 10e3, vinLow: 0, vinHigh: 3.3 },
-    cardFields: ["bits", "sampleRate", "vinLow", "vinHigh"],
+    cardFields: [["bits", "bits"], ["sampleRate", "fs"], ["vinLow", "in lo"], ["vinHigh", "in hi"]],
   },
 };
 

@@ -3,10 +3,11 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
 import { launchBrowser, newSession, screenshot } from "./support/browser";
 import { e2eContext } from "./support/context";
-import { openWorkspace, selectCard, serverChain, typeInto, waitForSaveState } from "./workspace-support";
+import { findTemplate } from "../../lib/templates";
+import { selectCard, serverChain, typeInto, waitForSaveState } from "./workspace-support";
 
 const ctx = e2eContext();
-const CHAIN = "Turbidity photodiode channel";
+const CHAIN = "Turbidity, conflict check";
 
 describe.skipIf(ctx.skip !== null)("two people saving the same chain (production build)", () => {
   let browser: Browser;
@@ -17,18 +18,41 @@ describe.skipIf(ctx.skip !== null)("two people saving the same chain (production
     await browser?.close();
   });
 
-  async function person(email: string): Promise<{ page: Page; close: () => Promise<void>; id: string }> {
+  async function signIn(email: string): Promise<{ page: Page; close: () => Promise<void> }> {
     const { context, page } = await newSession(browser);
     await signInWithPassword(page, email, DEMO_PASSWORD);
     await page.waitForURL(/\/chains$/);
-    const id = await openWorkspace(page, CHAIN);
-    return { page, close: () => context.close(), id };
+    return { page, close: () => context.close() };
+  }
+
+  /** Tobias makes a chain of his own from the turbidity example and shares it with Ines as an editor. */
+  async function sharedChain(owner: Page): Promise<string> {
+    const doc = { ...findTemplate("turbidity-two-channel")!.make(), name: CHAIN };
+    // the seeded turbidity chain's ids, so the steps below read like the seeded one
+    doc.nodes = doc.nodes.map((n) => (n.id === "u1" ? { ...n, id: "inv", params: { ...n.params, r1: 10e3, r2: 20e3 } } : n));
+    doc.edges = doc.edges.map((e) => ({ from: e.from === "u1" ? "inv" : e.from, to: e.to === "u1" ? "inv" : e.to }));
+    const created = await owner.request.post("/api/chains", { data: { name: CHAIN, document: doc } });
+    expect(created.status()).toBe(201);
+    const id = (await created.json()).chain.id as string;
+    const members = await (await owner.request.get(`/api/chains/${id}/members`)).json();
+    const ines = (members.candidates as { userId: string; email?: string; name?: string }[]).find((p) => p.email === DEMO_PEOPLE.engineerB.email);
+    expect(ines).toBeDefined();
+    const shared = await owner.request.post(`/api/chains/${id}/members`, { data: { userId: ines!.userId, role: "editor" } });
+    expect(shared.status()).toBeLessThan(300);
+    return id;
+  }
+
+  async function open(page: Page, id: string) {
+    await page.goto(`/chains/${id}`);
+    await page.getByTestId("workspace").waitFor();
   }
 
   it("answers a stale save with the conflict choice, never a silent overwrite: load theirs, or keep mine as a copy", async () => {
-    const tobias = await person(DEMO_PEOPLE.engineerA.email);
-    const ines = await person(DEMO_PEOPLE.engineerB.email);
-    const id = tobias.id;
+    const tobias = await signIn(DEMO_PEOPLE.engineerA.email);
+    const ines = await signIn(DEMO_PEOPLE.engineerB.email);
+    const id = await sharedChain(tobias.page);
+    await open(tobias.page, id);
+    await open(ines.page, id);
     const start = (await serverChain(tobias.page, id)).version;
 
     // Tobias changes the gain and saves first.

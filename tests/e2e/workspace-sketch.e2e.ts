@@ -1,3 +1,4 @@
+import { readFileSync } from "node:fs";
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
@@ -92,6 +93,16 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
     await page.getByRole("tab", { name: "Response" }).click();
     await screenshot(page, "workspace-sketch-fixed");
 
+    // The readout follows the cursor over the plot, and the plotted curves export as CSV.
+    const plotBox = (await page.getByTestId("plot-area").boundingBox())!;
+    await page.mouse.move(plotBox.x + plotBox.width * 0.5, plotBox.y + plotBox.height * 0.25);
+    await expect.poll(() => page.getByTestId("plot-readout").textContent()).toMatch(/Hz: u1 .*dB .*°/);
+    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Export CSV" }).click()]);
+    const csv = readFileSync(await download.path(), "utf8");
+    const lines = csv.trim().split(/\r?\n/);
+    expect(lines[0]).toBe("frequency_Hz,u1 from source magnitude_dB,u1 from source phase_deg");
+    expect(lines).toHaveLength(1 + 600); // the default 600 plot points
+
     await waitForSaveState(page, "saved");
     const before = await serverChain(page, id);
     expect(before.document.nodes.map((n) => n.id)).toEqual(["src", "u1", "rc1", "adc1"]);
@@ -144,6 +155,40 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
     await expect.poll(() => card(page, "u2").count()).toBe(0);
     // With no converter yet, the plot follows the path to the last stage.
     await waitForPlot(page);
+
+    // A source marked as connected to a person brings up the caution.
+    await selectCard(page, "src");
+    await page.locator("#f-safety").selectOption("body-connected");
+    await page.getByTestId("safety-caution").waitFor();
+    await expect(page.getByTestId("safety-caution").textContent()).resolves.toMatch(/does not check isolation, creepage, leakage/);
+    await expect(card(page, "src").getByTestId("card-safety").textContent()).resolves.toMatch(/on a person/);
+    await screenshot(page, "workspace-caution");
+
+    // Copy the gain stage here and paste it into another chain.
+    await selectCard(page, "u1");
+    await pressOnCanvas(page, "Control+c");
+    await waitForSaveState(page, "saved");
+    await createBlankChain(page, "Paste target");
+    await pressOnCanvas(page, "Control+v");
+    await card(page, "u1").waitFor();
+    await selectCard(page, "u1");
+    await expect(page.locator("#f-rails-low").inputValue()).resolves.toBe("-12");
+    await context.close();
+  });
+
+  it("starts a chain from an example and shows it analysed", async () => {
+    const { context, page } = await newSession(browser);
+    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
+    await page.waitForURL(/\/chains$/);
+    await page.getByRole("link", { name: "New chain" }).click();
+    await page.getByRole("radio", { name: "Turbidity photodiode, two channels" }).check();
+    await page.getByRole("button", { name: "Create and open" }).click();
+    await page.waitForURL(/\/chains\/[0-9a-f-]{36}$/);
+    await waitForPlot(page);
+    for (const id of ["u1", "u2", "adc1", "adc2"]) await waitForStatus(page, id, "ok");
+    // two converters: the plot offers both paths
+    await expect(page.getByLabel("Path to plot").locator("option").allTextContents()).resolves.toEqual(["adc1", "adc2"]);
+    await screenshot(page, "workspace-template");
     await context.close();
   });
 });
