@@ -352,7 +352,7 @@ function Dock({ tab, setTab, focusNode }: { tab: DockTab; setTab: (t: DockTab) =
       </div>
       {/* The plot stays mounted while hidden so switching tabs does not reload or redraw it. */}
       <div id="dock-panel-response" role="tabpanel" aria-labelledby="dock-tab-response" hidden={tab !== "response"} className="min-h-0 flex-1">
-        <ResponsePlot />
+        <ResponsePlot visible={tab === "response"} />
       </div>
       {tab === "findings" && (
         <div id="dock-panel-findings" role="tabpanel" aria-labelledby="dock-tab-findings" className="min-h-0 flex-1">

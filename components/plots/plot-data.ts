@@ -196,15 +196,16 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
       if (v < bottom) bottom = v;
     }
   }
-  const yRange = Number.isFinite(top) ? [Math.max(bottom, top - 140) - 5, top + 5] : undefined;
+  // Steps of 10 dB, so most edits leave the range alone and the plot can update its curves only.
+  const yTop = Number.isFinite(top) ? Math.ceil((top + 2) / 10) * 10 : undefined;
+  const yRange = yTop === undefined ? undefined : [Math.floor(Math.max(bottom - 2, yTop - 150) / 10) * 10, yTop];
   const layout = {
     margin: { l: 46, r: 12, t: 8, b: 34 },
     paper_bgcolor: "#fbfaf7",
     plot_bgcolor: "#fbfaf7",
     font: { family: "var(--font-geist-sans), system-ui, sans-serif", size: 11, color: "#3c4047" },
-    showlegend: series.length > 1,
-    // inside the magnitude panel, lower left: a low-pass chain leaves that corner empty
-    legend: { orientation: "v", x: 0.005, y: 0.55, xanchor: "left", yanchor: "bottom", font: { size: 10 }, bgcolor: "rgba(251,250,247,0.8)", borderwidth: 0 },
+    // the legend is drawn in the page beside the plot (plotLegend); Plotly's own costs a redraw each time
+    showlegend: false,
     hovermode: "x",
     dragmode: "zoom",
     xaxis: {
@@ -230,6 +231,25 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
     uirevision: "keep-zoom",
   };
   return { data, layout };
+}
+
+/**
+ * Everything about a figure except its curve values: when two figures share it, the second can be drawn
+ * by replacing the curves alone (Plotly.animate without a redraw) instead of a full Plotly.react.
+ */
+export function figureShape(fig: Figure): string {
+  return JSON.stringify({
+    traces: fig.data.map((t) => [t.name, t.yaxis, t.meta, t.line, (t.x as unknown[]).length]),
+    layout: fig.layout,
+  });
+}
+
+/** What the plot's legend shows: the chosen curve in the accent and the other stages in the muted tone. */
+export function plotLegend(series: PlotSeries[]): { name: string; colour: string; emphasis: boolean }[] {
+  const others = series.filter((s) => !s.emphasis);
+  const out = series.filter((s) => s.emphasis).map((s) => ({ name: s.name, colour: ACCENT, emphasis: true }));
+  if (others.length) out.push({ name: others.length === 1 ? others[0].name : `${others.length} other stages`, colour: OTHERS_COLOUR, emphasis: false });
+  return out;
 }
 
 /** CSV of what is plotted: frequency, then magnitude and phase per series. */

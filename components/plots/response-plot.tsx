@@ -5,11 +5,17 @@
  * source band, Nyquist and the alias frequency, a readout at the cursor and CSV export of what is drawn.
  */
 import { useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
-import { useEditor, useEditorActions } from "@/lib/store/editor-context";
+import { useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/editor-context";
 import type { PlotMode } from "@/lib/store/editor-store";
 import { pathTo } from "@/lib/store/graph";
-import { buildFigure, hoverIndex, plotCsv, plotMarkers, plotSeries, readoutAt, type PlotInput } from "./plot-data";
+import { buildFigure, figureShape, hoverIndex, plotCsv, plotLegend, plotMarkers, plotSeries, readoutAt, type PlotInput } from "./plot-data";
 import { loadPlotly, type PlotlyLike } from "./plotly-loader";
+
+function sameValues(a: (number | null)[], b: (number | null)[] | undefined): boolean {
+  if (!b || a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
 
 /** The node the plot follows: the selected node when it is analysed, else the chosen path's end. */
 function useTarget(): { target: string | null; following: "selection" | "path" } {
@@ -23,8 +29,14 @@ function useTarget(): { target: string | null; following: "selection" | "path" }
   return { target: pathEnd && ends.includes(pathEnd) ? pathEnd : (ends[0] ?? null), following: "path" };
 }
 
-export function ResponsePlot() {
-  const live = useEditor((s) => s.live);
+/** `visible`: false while the plot's tab is hidden; it draws nothing then, and redraws in full when shown. */
+export function ResponsePlot({ visible = true }: { visible?: boolean }) {
+  const curves = useEditor((s) => s.live?.curves);
+  const chain = useEditor((s) => s.live?.chain);
+  const stageById = useEditor((s) => s.live?.stageById);
+  const issue = useEditor((s) => s.live?.issues[0]?.message);
+  const paths = useEditor((s) => s.live?.paths);
+  const store = useEditorStoreApi();
   const mode = useEditor((s) => s.plotMode);
   const name = useEditor((s) => s.doc.name);
   const pathEnd = useEditor((s) => s.plotPathEnd);
@@ -36,9 +48,9 @@ export function ResponsePlot() {
   const [loadError, setLoadError] = useState<string | null>(null);
   const [hoverK, setHoverK] = useState<number | null>(null);
 
+  // Only what is drawn: a full-tier result with the same curves and figures does not redraw.
   const input = useMemo<PlotInput | null>(() => {
-    if (!live?.curves || !live.chain || !target) return null;
-    const chain = live.chain;
+    if (!curves || !chain || !stageById || !target) return null;
     const path = pathTo(chain, target);
     if (path.length < 2) return null;
     const names: Record<string, string> = {};
@@ -46,18 +58,20 @@ export function ResponsePlot() {
     const src = chain.nodes.find((n) => n.kind === "source");
     const end = chain.nodes.find((n) => n.id === target);
     return {
-      curves: live.curves,
+      curves,
       path,
       mode,
       names,
-      stages: live.stageById,
+      stages: stageById,
       band: src?.kind === "source" ? { fLow: src.params.fLow, fHigh: src.params.fHigh } : null,
       sampleRate: end?.kind === "adc" ? end.params.sampleRate : null,
     };
-  }, [live, target, mode]);
+  }, [curves, chain, stageById, target, mode]);
 
   const series = useMemo(() => (input ? plotSeries(input) : []), [input]);
   const pointsRef = useRef(0);
+  const shapeRef = useRef("");
+  const drawnRef = useRef<(number | null)[][]>([]);
   const markers = useMemo(() => (input ? plotMarkers(input) : []), [input]);
 
   useEffect(() => {
@@ -82,15 +96,34 @@ export function ResponsePlot() {
     const node = el.current;
     const p = plotly.current;
     if (!ready || !node || !p || !input) return;
+    if (!visible) {
+      shapeRef.current = "";
+      return;
+    }
     pointsRef.current = input.curves.f.length;
-    const rev = live?.rev;
+    const rev = store.getState().live?.rev;
     performance.mark(`cw:plot-start:${rev}`);
     const fig = buildFigure(series, markers, input.curves.f);
-    void p.react(node, fig.data, fig.layout, { displaylogo: false, responsive: true, modeBarButtonsToRemove: ["select2d", "lasso2d", "toImage"] }).then(() => {
+    const shape = figureShape(fig);
+    const ys = fig.data.map((t) => t.y as (number | null)[]);
+    let drawn: Promise<unknown>;
+    if (shape === shapeRef.current) {
+      // Same traces, markers and axes as on screen: replace only the curves whose values changed (editing
+      // the stage the plot follows leaves every curve before it as it was), without a full redraw.
+      const changed = ys.flatMap((y, i) => (sameValues(y, drawnRef.current[i]) ? [] : [i]));
+      drawn = changed.length
+        ? p.animate(node, { data: changed.map((i) => ({ y: ys[i] })), traces: changed }, { transition: { duration: 0 }, frame: { duration: 0, redraw: false }, mode: "immediate" })
+        : Promise.resolve();
+    } else {
+      drawn = p.react(node, fig.data, fig.layout, { displaylogo: false, responsive: true, modeBarButtonsToRemove: ["select2d", "lasso2d", "toImage"] });
+    }
+    shapeRef.current = shape;
+    drawnRef.current = ys;
+    void drawn.then(() => {
       // For the browser benchmark: the plot of analysis revision N is drawn.
       performance.mark(`cw:plot:${rev}`);
     });
-  }, [ready, input, series, markers, live?.rev]);
+  }, [ready, input, series, markers, store, visible]);
 
   useEffect(() => {
     const node = el.current as (HTMLDivElement & { on?: (ev: string, fn: (d: { points?: { pointIndex?: number; pointNumber?: number; data?: { meta?: unknown } }[] }) => void) => void }) | null;
@@ -104,7 +137,7 @@ export function ResponsePlot() {
     node.on("plotly_unhover", () => setHoverK(null));
   }, [ready, input !== null]); // eslint-disable-line react-hooks/exhaustive-deps
 
-  const paths = live?.paths ?? [];
+  const legend = plotLegend(series);
   const readout = input && hoverK !== null && hoverK < input.curves.f.length ? readoutAt(series, input.curves.f, hoverK) : null;
 
   const exportCsv = () => {
@@ -140,7 +173,7 @@ export function ResponsePlot() {
           <span className="text-graphite-500">
             up to <span className="num text-graphite-900">{target}</span> (selected)
           </span>
-        ) : paths.length > 1 ? (
+        ) : (paths?.length ?? 0) > 1 ? (
           <label className="flex items-center gap-1 text-graphite-500">
             path to
             <select
@@ -149,7 +182,7 @@ export function ResponsePlot() {
               className="num rounded-card border border-paper-rule bg-paper-raised px-1 py-0.5 text-graphite-900"
               aria-label="Path to plot"
             >
-              {paths.map((p) => {
+              {paths!.map((p) => {
                 const end = p[p.length - 1];
                 return (
                   <option key={end} value={end}>
@@ -164,6 +197,14 @@ export function ResponsePlot() {
             path to <span className="num text-graphite-900">{target}</span>
           </span>
         ) : null}
+        <ul className="flex items-center gap-2 text-[11.5px] text-graphite-700" aria-label="Curves drawn" data-testid="plot-legend">
+          {legend.map((l) => (
+            <li key={l.name} className="flex items-center gap-1">
+              <span aria-hidden className="inline-block h-0 w-4 border-t-2" style={{ borderColor: l.colour, borderTopWidth: l.emphasis ? 2.5 : 1.5 }} />
+              {l.name}
+            </li>
+          ))}
+        </ul>
         <span className="num min-w-0 flex-1 truncate text-graphite-700" aria-live="off" data-testid="plot-readout">
           {readout ? `${readout.f}: ${readout.items.map((r) => `${r.id} ${r.db} ${r.ph}`).join(" · ")}` : "point at the plot for values"}
         </span>
@@ -178,8 +219,8 @@ export function ResponsePlot() {
             {loadError
               ? `The plot could not load (${loadError}).`
               : !input
-                ? live?.issues[0]
-                  ? `Nothing to plot yet: ${live.issues[0].message}.`
+                ? issue
+                  ? `Nothing to plot yet: ${issue}.`
                   : "Nothing to plot yet: place a source and connect a stage to it."
                 : "Loading the plot…"}
           </p>

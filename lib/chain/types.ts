@@ -305,4 +305,10 @@ export interface AnalyzeOptions {
   freqs?: number[];
   /** override analysis.points */
   points?: number;
+  /**
+   * false skips the noise figures (the workspace's quick live analysis, which fills them in from a full run
+   * later): each path's noise comes back with `skipped: true`, zero rms and no contributions, and the ADC's
+   * snrDb and enob are null. Nothing else depends on noise. Default true.
+   */
+  noise?: boolean;
 }

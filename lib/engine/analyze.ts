@@ -324,11 +324,16 @@ export function analyzeChain(chain: Chain, opts: AnalyzeOptions = {}): AnalysisR
         `The response to ${endNode.id} has no finite value at ${poles} of the requested frequencies (a pole or a zero of the network there, or an invalid frequency); those points are null.`,
       );
     const stages = path.indices.filter((i) => stageResults.has(i)).map((i) => stageResults.get(i)!);
-    const nz = pathNoise(chain, cc, end);
-    if (chain.analysis.noiseLow >= fMax)
+    // opts.noise === false (the workspace's quick live tier): no noise figures, marked as skipped.
+    const withNoise = opts.noise !== false;
+    const nz = withNoise
+      ? pathNoise(chain, cc, end)
+      : { outputRms: 0, low: chain.analysis.noiseLow, high: chain.analysis.noiseHigh ?? fMax, totalRms: 0, contributions: [], skipped: true };
+    if (withNoise && chain.analysis.noiseLow >= fMax)
       W.add(endNode.id, "noise-band", `noiseLow is at or above fMax, so the noise up to fMax (totalRms) is empty and reported as 0.`);
-    const noise = { ...nz, density: pathNoiseDensity(chain, cc, end, freqs).map((v) => (Number.isFinite(v) ? v : null)) };
-    const adc = endNode.kind === "adc" ? adcFigures(chain, cc, end, op.out[end], band[end], nz.totalRms, W) : null;
+    const density = withNoise ? pathNoiseDensity(chain, cc, end, freqs).map((v) => (Number.isFinite(v) ? v : null)) : [];
+    const noise = { ...nz, density };
+    const adc = endNode.kind === "adc" ? adcFigures(chain, cc, end, op.out[end], band[end], withNoise ? nz.totalRms : null, W) : null;
     return { nodes: path.nodes, response: { f, magDb, phaseDeg }, stages, noise, adc };
   });
 
@@ -348,7 +353,8 @@ function adcFigures(
   i: number,
   dc: DcPoint,
   fig: NodeFigures,
-  totalRms: number,
+  /** null when the noise figures were skipped: snrDb and enob are then null */
+  totalRms: number | null,
   W: Warnings,
 ): AdcResult {
   const node = cc.topology.nodes[i];
@@ -362,9 +368,9 @@ function adcFigures(
   const quantNoiseRms = lsb / Math.sqrt(12);
   const idealSnrDb = 6.02 * bits + 1.76;
   const signalRms = span / (2 * Math.SQRT2);
-  const noiseRms = Math.sqrt(totalRms * totalRms + quantNoiseRms * quantNoiseRms);
-  const snrDb = 20 * Math.log10(signalRms / noiseRms);
-  const enob = (snrDb - 1.76) / 6.02;
+  const noiseRms = totalRms === null ? null : Math.sqrt(totalRms * totalRms + quantNoiseRms * quantNoiseRms);
+  const snrDb = noiseRms === null ? null : 20 * Math.log10(signalRms / noiseRms);
+  const enob = snrDb === null ? null : (snrDb - 1.76) / 6.02;
   const name = nodeName(node);
 
   let status: StageStatus = "ok";

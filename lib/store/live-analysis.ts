@@ -8,10 +8,10 @@
  *   that need it (SNR, ENOB, noise contributions).
  *
  * Noise integration is most of the engine's time (it carries every resistor and op-amp noise source
- * through its own transfer function over a dense grid), so the quick tier asks the engine for a
- * one-point response and a vanishing noise band; none of the headroom figures depend on either, and
- * the noise figures of the quick tier are never shown. Both tiers are pure functions; the workspace
- * runs them in web workers (analysis.worker.ts) so typing never waits for them.
+ * through its own transfer function over a dense grid), so the quick tier asks the engine to skip it
+ * (`noise: false`) and for a one-point response (the curves come from the fast sweep); none of the
+ * headroom figures depend on either. Both tiers are pure functions; the workspace runs them in web
+ * workers (analysis.worker.ts) so typing never waits for them.
  */
 import type { AdcResult, AnalysisResult, AnalysisWarning, Chain, ChainIssue, StageResult } from "@/lib/chain/types";
 import { completeSubchain } from "@/lib/chain/schema";
@@ -107,10 +107,7 @@ export function quickTier(doc: DraftDoc): QuickTier {
     out.chain = sub.chain;
     out.issues = sub.issues;
     if (sub.chain) {
-      const a = sub.chain.analysis;
-      // A vanishing noise band just below fMax: the engine's noise integration then costs next to nothing.
-      const lite: Chain = { ...sub.chain, analysis: { ...a, noiseLow: a.fMax * (1 - 1e-6), noiseHigh: a.fMax } };
-      out.result = analyzeChain(lite, { freqs: [a.fMin] });
+      out.result = analyzeChain(sub.chain, { freqs: [sub.chain.analysis.fMin], noise: false });
       out.curves = computeCurves(sub.chain);
     }
   } catch (e) {
@@ -136,6 +133,14 @@ const NODE_PATH = /^nodes\[(\d+)\]/;
 /** `next`, or `prev` when the two hold the same values: unchanged figures keep their object. */
 function keep<T>(prev: T | undefined, next: T): T {
   return prev !== undefined && JSON.stringify(prev) === JSON.stringify(next) ? prev : next;
+}
+
+/** The previous map when it holds the very same objects under the same keys. */
+function keepMap<T>(prev: Record<string, T> | undefined, next: Record<string, T>): Record<string, T> {
+  if (!prev) return next;
+  const keys = Object.keys(next);
+  if (keys.length !== Object.keys(prev).length) return next;
+  return keys.every((k) => prev[k] === next[k]) ? prev : next;
 }
 
 /**
@@ -189,6 +194,8 @@ export function assembleLive(
         out.adcById[p.adc.id] = keep(prev?.adcById[p.adc.id], { ...p.adc, snrDb: f ? f.snrDb : null, enob: f ? f.enob : null });
       }
     }
+    out.stageById = keepMap(prev?.stageById, out.stageById);
+    out.adcById = keepMap(prev?.adcById, out.adcById);
     out.warnings = fullResult ? fullResult.warnings : r.warnings;
     for (const w of out.warnings) (out.warningsByNode[w.nodeId] ??= []).push(w);
   }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import Papa from "papaparse";
-import { ACCENT, GROUPED, buildFigure, dbPhase, hoverIndex, plotCsv, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
+import { ACCENT, GROUPED, OTHERS_COLOUR, buildFigure, dbPhase, figureShape, hoverIndex, plotCsv, plotLegend, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
 import type { LiveCurves } from "@/lib/store/live-analysis";
 import type { StageResult } from "@/lib/chain/types";
 
@@ -116,6 +116,29 @@ describe("buildFigure with many stages", () => {
     // a hovered point of the third grouped curve maps back to its frequency index
     expect(hoverIndex(2 * (f.length + 1) + 3, GROUPED, f.length)).toBe(3);
     expect(hoverIndex(3, undefined, f.length)).toBe(3);
+  });
+});
+
+describe("figureShape", () => {
+  it("is the same when only curve values change, and differs when a marker moves", () => {
+    const a = buildFigure(plotSeries(input()), plotMarkers(input()), f);
+    const shifted = { ...curves, cumRe: curves.cumRe.map((r) => r.map((v) => v * 0.99)) };
+    const b = buildFigure(plotSeries(input({ curves: shifted })), plotMarkers(input({ curves: shifted })), f);
+    expect(figureShape(b)).toBe(figureShape(a));
+    const moved = { ...input(), stages: { u1: { ...u1, f0: 120 } } };
+    const c = buildFigure(plotSeries(moved), plotMarkers(moved), f);
+    expect(figureShape(c)).not.toBe(figureShape(a));
+  });
+});
+
+describe("plotLegend", () => {
+  it("names the chosen curve and counts the others", () => {
+    const many = { ...curves, index: { ...curves.index, u2: 1 } };
+    const s = plotSeries(input({ curves: many, path: ["src", "u1", "u2", "adc"], stages: { u1, u2: u1 } }));
+    expect(plotLegend(s)).toEqual([
+      { name: "adc", colour: ACCENT, emphasis: true },
+      { name: "2 other stages", colour: OTHERS_COLOUR, emphasis: false },
+    ]);
   });
 });
 

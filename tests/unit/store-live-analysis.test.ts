@@ -21,6 +21,18 @@ describe("quickTier", () => {
     });
   }
 
+  it("leaves the noise figures to the full tier: skipped, with no SNR or ENOB", () => {
+    const q = quickTier(bridge());
+    const path = q.result!.paths[0];
+    expect(path.noise.skipped).toBe(true);
+    expect(path.noise.contributions).toEqual([]);
+    expect(path.adc!.snrDb).toBeNull();
+    expect(path.adc!.enob).toBeNull();
+    const full = fullTier(bridge()).result!.paths[0];
+    expect(full.noise.skipped).toBeUndefined();
+    expect(full.noise.totalRms).toBeGreaterThan(0);
+  });
+
   it("draws curves whose cascade to the ADC is the engine's own path response", () => {
     const doc = bridge();
     const q = quickTier(doc);
@@ -70,6 +82,9 @@ describe("assembleLive", () => {
     expect(second.stageById.u1).toBe(first.stageById.u1); // upstream of the edit: same figures, same object
     expect(second.stageById.rc1).not.toBe(first.stageById.rc1);
     expect(second.stageById.rc1.f0).not.toBe(first.stageById.rc1.f0);
+    // the same draft again (the full analysis arriving): the whole index stays as it was
+    const again = assembleLive(edited, 2, quickTier(edited), null, second);
+    expect(again.stageById).toBe(second.stageById);
   });
 
   it("flags the clipping stage of a chain with a large DC gain", () => {
