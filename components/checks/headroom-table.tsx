@@ -91,7 +91,8 @@ export function HeadroomTable({ onFocusNode }: { onFocusNode?: (id: string) => v
   const selected = useEditor((s) => s.selected);
   const actions = useEditorActions();
   const [sorting, setSorting] = useState<SortingState>([]);
-  const table = useReactTable({ data, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
+  // ascending first: the smallest margin (the stage nearest a rail) comes to the top with one click
+  const table = useReactTable({ data, columns, state: { sorting }, onSortingChange: setSorting, sortDescFirst: false, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
   if (data.length === 0) return <p className="p-3 text-[13px] text-graphite-500">No analysed op-amp stage or converter yet.</p>;
   return (
     <div className="h-full overflow-auto" data-testid="headroom-table">

@@ -8,12 +8,8 @@ import { useEditor } from "@/lib/store/editor-context";
 
 export function LiveProbe() {
   const rev = useEditor((s) => s.live?.rev);
-  const ms = useEditor((s) => s.live?.ms);
   useLayoutEffect(() => {
-    if (rev === undefined) return;
-    performance.mark(`cw:spans:${rev}`);
-    // the quick tier's own time in its worker, for the benchmark's report
-    document.documentElement.dataset.cwQuickMs = String(ms ?? "");
-  }, [rev, ms]);
+    if (rev !== undefined) performance.mark(`cw:spans:${rev}`);
+  }, [rev]);
   return null;
 }

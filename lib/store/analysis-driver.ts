@@ -17,14 +17,52 @@ export interface TierRunner {
   dispose(): void;
 }
 
-/** Runs requests in this thread, after a macrotask (tests, or a browser without module workers). */
+/** Run `fn` as a task of its own, so the keystroke that asked for it is handled (and painted) first. */
+function nextTask(fn: () => void): void {
+  if (typeof MessageChannel === "undefined") {
+    setTimeout(fn, 0);
+    return;
+  }
+  const ch = new MessageChannel();
+  ch.port1.onmessage = () => {
+    ch.port1.close();
+    fn();
+  };
+  ch.port2.postMessage(null);
+}
+
+/** Runs requests in this thread, as a task of their own (tests, small chains, browsers without module workers). */
 export function inlineRunner(): TierRunner {
   return {
     run: (req) =>
       new Promise((resolve) =>
-        setTimeout(() => resolve(req.tier === "quick" ? { tier: "quick", seq: req.seq, quick: quickTier(req.doc) } : { tier: "full", seq: req.seq, full: fullTier(req.doc) }), 0),
+        nextTask(() => resolve(req.tier === "quick" ? { tier: "quick", seq: req.seq, quick: quickTier(req.doc) } : { tier: "full", seq: req.seq, full: fullTier(req.doc) })),
       ),
     dispose() {},
+  };
+}
+
+/**
+ * The quick tier where it is fastest overall: in this thread while it stays within `budgetMs` (a handful of
+ * milliseconds per edit: no worker round trip, and typing is not held up noticeably), in the worker once a
+ * chain makes it slower than that. The choice follows the last measured run, so a growing chain moves to
+ * the worker and a shrinking one comes back.
+ */
+export function adaptiveRunner(inline: TierRunner, worker: TierRunner, budgetMs = 8): TierRunner & { where(): "inline" | "worker" } {
+  let lastMs = 0;
+  let where: "inline" | "worker" = "inline";
+  return {
+    where: () => where,
+    run: async (req) => {
+      where = lastMs <= budgetMs ? "inline" : "worker";
+      const res = await (where === "inline" ? inline : worker).run(req);
+      if (res.tier === "quick") lastMs = res.quick.ms;
+      return res;
+    },
+    dispose() {
+      inline.dispose();
+      worker.dispose();
+    },
   };
 }
 
@@ -72,9 +110,9 @@ export interface AnalysisDriver {
   stop(): void;
 }
 
-function mark(name: string) {
+function mark(name: string, detail?: unknown) {
   try {
-    performance.mark(name);
+    performance.mark(name, detail === undefined ? undefined : { detail });
   } catch {
     /* marks are a measuring aid only */
   }
@@ -107,7 +145,8 @@ export function startAnalysis(store: EditorStore, runners: { quick: TierRunner; 
       if (stopped || res.tier !== "quick") return;
       lastQuick = { doc, rev: r, tier: res.quick };
       publish();
-      mark(`cw:live:${r}`);
+      const where = "where" in runners.quick ? (runners.quick as { where(): string }).where() : "worker";
+      mark(`cw:live:${r}`, { quickMs: res.quick.ms, where });
       if (quickNext) {
         const n = quickNext;
         quickNext = null;
@@ -162,12 +201,17 @@ export function startAnalysis(store: EditorStore, runners: { quick: TierRunner; 
   };
 }
 
-/** The driver as the workspace runs it: two module workers where the browser has them, else inline. */
+/**
+ * The driver as the workspace runs it: the full tier in a module worker, the quick tier in this thread
+ * while it is quick enough and in a second worker when it is not (see adaptiveRunner). Without module
+ * workers everything runs in this thread.
+ */
 export function startBrowserAnalysis(store: EditorStore): AnalysisDriver {
   let quick: TierRunner;
   let full: TierRunner;
   try {
-    quick = workerRunner(new Worker(new URL("./analysis.worker.ts", import.meta.url), { type: "module", name: "cw-quick" }));
+    const worker = workerRunner(new Worker(new URL("./analysis.worker.ts", import.meta.url), { type: "module", name: "cw-quick" }));
+    quick = adaptiveRunner(inlineRunner(), worker);
     full = workerRunner(new Worker(new URL("./analysis.worker.ts", import.meta.url), { type: "module", name: "cw-full" }));
   } catch {
     quick = inlineRunner();

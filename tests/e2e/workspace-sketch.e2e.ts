@@ -156,6 +156,10 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
     // With no converter yet, the plot follows the path to the last stage.
     await waitForPlot(page);
 
+    // A stage dragged from the shelf lands where it is dropped.
+    await page.getByTestId("shelf").getByRole("button", { name: /RC high-pass/ }).dragTo(page.locator(".react-flow__pane"), { targetPosition: { x: 300, y: 260 } });
+    await card(page, "rc1").waitFor();
+
     // A source marked as connected to a person brings up the caution.
     await selectCard(page, "src");
     await page.locator("#f-safety").selectOption("body-connected");

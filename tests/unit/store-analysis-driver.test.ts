@@ -1,5 +1,5 @@
 import { describe, expect, it, vi } from "vitest";
-import { inlineRunner, sameAnalysisInput, startAnalysis, type TierRunner } from "@/lib/store/analysis-driver";
+import { adaptiveRunner, inlineRunner, sameAnalysisInput, startAnalysis, type TierRunner } from "@/lib/store/analysis-driver";
 import { createEditorStore } from "@/lib/store/editor-store";
 import { findTemplate } from "@/lib/templates";
 import type { AnalysisRequest } from "@/lib/store/analysis-protocol";
@@ -49,6 +49,23 @@ describe("startAnalysis", () => {
     await settle();
     expect(quick.calls).toHaveLength(1);
     driver.stop();
+  });
+});
+
+describe("adaptiveRunner", () => {
+  it("runs the quick tier in this thread while it is within budget and in the worker once it is not", async () => {
+    const doc = findTemplate("ballast-bridge")!.make();
+    const slow = (ms: number): TierRunner => ({
+      run: async (req) => ({ tier: "quick", seq: req.seq, quick: { chain: null, issues: [], result: null, curves: null, ms, error: null } }),
+      dispose() {},
+    });
+    const worker = counting();
+    const runner = adaptiveRunner(slow(20), worker, 8);
+    await runner.run({ tier: "quick", seq: 1, doc });
+    expect(runner.where()).toBe("inline");
+    await runner.run({ tier: "quick", seq: 2, doc }); // the first took 20 ms: over budget
+    expect(runner.where()).toBe("worker");
+    expect(worker.calls).toHaveLength(1);
   });
 });
 
