@@ -182,10 +182,10 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
     const dash = m.kind === "corner" ? "dot" : m.kind === "nyquist" ? "dash" : "dashdot";
     const colour = m.kind === "corner" ? "#7b8088" : m.kind === "nyquist" ? "#24272c" : "#946019";
     shapes.push({ type: "line", xref: "x", yref: "paper", x0: m.f, x1: m.f, y0: 0, y1: 1, line: { color: colour, width: 1, dash } });
-    // Labels of markers close together step down so they do not print over each other.
-    level = lastF > 0 && Math.log10(m.f / lastF) < 0.35 ? (level + 1) % 3 : 0;
+    // Labels sit above the plot; those of markers close together alternate between two rows.
+    level = lastF > 0 && Math.log10(m.f / lastF) < 0.35 ? (level + 1) % 2 : 0;
     lastF = m.f;
-    annotations.push({ x: Math.log10(m.f), xref: "x", y: 1, yref: "paper", yanchor: "top", yshift: -level * 12, text: m.label, showarrow: false, font: { size: 10, color: colour }, bgcolor: "rgba(251,250,247,0.85)" });
+    annotations.push({ x: Math.log10(m.f), xref: "x", y: 1, yref: "paper", yanchor: "bottom", yshift: level * 11, text: m.label, showarrow: false, font: { size: 10, color: colour } });
   }
   let top = -Infinity;
   let bottom = Infinity;
@@ -200,7 +200,7 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
   const yTop = Number.isFinite(top) ? Math.ceil((top + 2) / 10) * 10 : undefined;
   const yRange = yTop === undefined ? undefined : [Math.floor(Math.max(bottom - 2, yTop - 150) / 10) * 10, yTop];
   const layout = {
-    margin: { l: 46, r: 12, t: 8, b: 34 },
+    margin: { l: 46, r: 12, t: 26, b: 34 },
     paper_bgcolor: "#fbfaf7",
     plot_bgcolor: "#fbfaf7",
     font: { family: "var(--font-geist-sans), system-ui, sans-serif", size: 11, color: "#3c4047" },

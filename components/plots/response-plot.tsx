@@ -115,7 +115,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
         ? p.animate(node, { data: changed.map((i) => ({ y: ys[i] })), traces: changed }, { transition: { duration: 0 }, frame: { duration: 0, redraw: false }, mode: "immediate" })
         : Promise.resolve();
     } else {
-      drawn = p.react(node, fig.data, fig.layout, { displaylogo: false, responsive: true, modeBarButtonsToRemove: ["select2d", "lasso2d", "toImage"] });
+      drawn = p.react(node, fig.data, fig.layout, { displaylogo: false, responsive: true, displayModeBar: false, doubleClick: "reset" });
     }
     shapeRef.current = shape;
     drawnRef.current = ys;
@@ -206,7 +206,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
           ))}
         </ul>
         <span className="num min-w-0 flex-1 truncate text-graphite-700" aria-live="off" data-testid="plot-readout">
-          {readout ? `${readout.f}: ${readout.items.map((r) => `${r.id} ${r.db} ${r.ph}`).join(" · ")}` : "point at the plot for values"}
+          {readout ? `${readout.f}: ${readout.items.map((r) => `${r.id} ${r.db} ${r.ph}`).join(" · ")}` : "point for values; drag to zoom, double-click to reset"}
         </span>
         <button type="button" onClick={exportCsv} disabled={!input} className="rounded-card border border-paper-rule bg-paper-raised px-2 py-0.5 text-graphite-900 hover:bg-paper-sunk disabled:opacity-50">
           Export CSV

@@ -137,6 +137,7 @@ async function main() {
     await page.locator("#f-rf").waitFor();
     await page.waitForFunction(`performance.getEntriesByType("mark").some((m) => m.name.startsWith("cw:plot:"))`, null, { timeout: 60_000 });
     const workers = page.workers().length;
+    await page.screenshot({ path: path.join(ARTIFACTS, "bench-ui-chain.png") });
 
     const results = [await pace(page, 200, "typing (edit every 200 ms)"), await pace(page, 1200, "pauses (edit every 1.2 s)")];
     const ms = (x: number) => `${x.toFixed(1)} ms`;
