@@ -146,7 +146,7 @@ export function startAnalysis(store: EditorStore, runners: { quick: TierRunner; 
       lastQuick = { doc, rev: r, tier: res.quick };
       publish();
       const where = "where" in runners.quick ? (runners.quick as { where(): string }).where() : "worker";
-      mark(`cw:live:${r}`, { quickMs: res.quick.ms, where });
+      mark(`cw:live:${r}`, { quickMs: res.quick.ms, steps: res.quick.steps, where });
       if (quickNext) {
         const n = quickNext;
         quickNext = null;

@@ -35,6 +35,8 @@ export interface QuickTier {
   result: AnalysisResult | null;
   curves: LiveCurves | null;
   ms: number;
+  /** where the time went, ms: the complete part of the draft, the engine's analysis, the curves */
+  steps?: { subchain: number; analysis: number; curves: number };
   error: string | null;
 }
 
@@ -104,11 +106,14 @@ export function quickTier(doc: DraftDoc): QuickTier {
   const out: QuickTier = { chain: null, issues: [], result: null, curves: null, ms: 0, error: null };
   try {
     const sub = completeSubchain(doc);
+    const t1 = performance.now();
     out.chain = sub.chain;
     out.issues = sub.issues;
     if (sub.chain) {
       out.result = analyzeChain(sub.chain, { freqs: [sub.chain.analysis.fMin], noise: false });
+      const t2 = performance.now();
       out.curves = computeCurves(sub.chain);
+      out.steps = { subchain: t1 - t0, analysis: t2 - t1, curves: performance.now() - t2 };
     }
   } catch (e) {
     out.error = errText(e);

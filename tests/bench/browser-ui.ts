@@ -42,6 +42,7 @@ interface Sample {
   /** the quick tier's own time, and where it ran (this thread or its worker) */
   quickMs: number;
   where: string;
+  steps: { subchain: number; analysis: number; curves: number } | null;
   /** edit → analysis back on the main thread */
   live: number;
   /** building the figure and Plotly's redraw */
@@ -77,9 +78,10 @@ const EDIT_IN_PAGE = `async (text) => {
       const liveMark = performance.getEntriesByName("cw:live:" + rev, "mark")[0];
       const quickMs = liveMark?.detail?.quickMs ?? NaN;
       const where = liveMark?.detail?.where ?? "?";
+      const steps = liveMark?.detail?.steps ?? null;
       const live = liveMark?.startTime;
       const plotStart = find("cw:plot-start:" + rev);
-      return { plot: plot - t0, spans: spans - t0, both: Math.max(plot, spans) - t0, quickMs, where, live: live - t0, plotDraw: plot - plotStart };
+      return { plot: plot - t0, spans: spans - t0, both: Math.max(plot, spans) - t0, quickMs, where, steps, live: live - t0, plotDraw: plot - plotStart };
     }
     if (performance.now() > t0 + 10000) throw new Error("revision " + rev + " was not drawn within 10 s");
     await new Promise((r) => setTimeout(r, 1));
@@ -107,6 +109,7 @@ async function pace(page: Page, gapMs: number, label: string) {
     quickTierMs: stats(samples.map((s) => s.quickMs).filter(Number.isFinite)),
     analysisBack: stats(samples.map((s) => s.live)),
     plotDraw: stats(samples.map((s) => s.plotDraw)),
+    quickSteps: (["subchain", "analysis", "curves"] as const).map((k) => `${k} ${stats(samples.flatMap((s) => (s.steps ? [s.steps[k]] : []))).median.toFixed(1)} ms`).join(", "),
     quickWhere: Object.entries(samples.reduce<Record<string, number>>((acc, s) => ((acc[s.where] = (acc[s.where] ?? 0) + 1), acc), {})).map(([k, n]) => `${k} ${n}`).join(", "),
   };
   return out;
@@ -147,6 +150,7 @@ async function main() {
       console.log(`  edit → plot drawn        median ${ms(r.plot.median)}   p95 ${ms(r.plot.p95)}   max ${ms(r.plot.max)}`);
       console.log(`  edit → rail spans drawn  median ${ms(r.spans.median)}   p95 ${ms(r.spans.p95)}   max ${ms(r.spans.max)}`);
       console.log(`  edit → both              median ${ms(r.both.median)}   p95 ${ms(r.both.p95)}   max ${ms(r.both.max)}   (target p95 < 50 ms: ${r.both.p95 < 50 ? "met" : "NOT met"})`);
+      console.log(`  quick analysis steps (medians): ${r.quickSteps}`);
       if (r.quickTierMs.n) console.log(`  of which: quick analysis (${r.quickWhere}) median ${ms(r.quickTierMs.median)} (p95 ${ms(r.quickTierMs.p95)}); edit → result on the main thread median ${ms(r.analysisBack.median)} (p95 ${ms(r.analysisBack.p95)}); figure + Plotly redraw median ${ms(r.plotDraw.median)} (p95 ${ms(r.plotDraw.p95)})`);
     }
     mkdirSync(ARTIFACTS, { recursive: true });
