@@ -40,7 +40,7 @@ export const QuantityInput = forwardRef<HTMLInputElement, QuantityInputProps>(fu
       <div className="min-w-0">
         <div
           className={cx(
-            "flex items-center rounded-card border bg-paper-raised focus-within:border-accent-600",
+            "flex items-center rounded-card border bg-paper-raised focus-within:border-accent-600 has-[:disabled]:border-dashed has-[:disabled]:bg-paper",
             problem ? "border-status-clip" : "border-paper-rule",
           )}
         >
