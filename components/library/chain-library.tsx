@@ -7,8 +7,9 @@
 import { useMemo, useState, useTransition } from "react";
 import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import { StatusMark } from "@/components/ui/status-mark";
+import { SortableTable } from "@/components/ui/sortable-table";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { ReviewBadge } from "@/components/review/review-badge";
@@ -195,50 +196,7 @@ export function ChainLibrary({ rows, total, page, pageSize, facets, creatableTea
           No chains yet. Chains your team creates, or that someone shares with you, appear here.
         </div>
       ) : (
-        <div className="overflow-x-auto rounded-card border border-paper-rule bg-paper-raised shadow-card">
-          <table className="w-full text-left text-sm" data-testid="chain-list">
-            <caption className="sr-only">Chains you can open, {total} in all</caption>
-            <thead className="border-b border-paper-rule bg-paper-sunk/60 text-xs uppercase tracking-wide text-graphite-500">
-              {table.getHeaderGroups().map((g) => (
-                <tr key={g.id}>
-                  {g.headers.map((h) => {
-                    const sorted = h.column.getIsSorted();
-                    return (
-                      <th key={h.id} scope="col" className="px-3 py-2.5 font-medium" aria-sort={sorted ? (sorted === "desc" ? "descending" : "ascending") : undefined}>
-                        {h.column.getCanSort() ? (
-                          <button type="button" onClick={h.column.getToggleSortingHandler()} className="uppercase tracking-wide hover:text-graphite-900">
-                            {flexRender(h.column.columnDef.header, h.getContext())}
-                            <span aria-hidden="true">{sorted === "asc" ? " ↑" : sorted === "desc" ? " ↓" : ""}</span>
-                          </button>
-                        ) : (
-                          flexRender(h.column.columnDef.header, h.getContext())
-                        )}
-                      </th>
-                    );
-                  })}
-                </tr>
-              ))}
-            </thead>
-            <tbody>
-              {table.getRowModel().rows.map((r) => (
-                <tr key={r.id} className="border-b border-paper-rule last:border-b-0" data-testid="library-row">
-                  {r.getVisibleCells().map((c) => (
-                    <td key={c.id} className="px-3 py-2.5 text-graphite-700">
-                      {flexRender(c.column.columnDef.cell, c.getContext())}
-                    </td>
-                  ))}
-                </tr>
-              ))}
-              {rows.length === 0 && (
-                <tr>
-                  <td colSpan={columns.length} className="px-3 py-6 text-center text-graphite-500">
-                    No chain matches these filters.
-                  </td>
-                </tr>
-              )}
-            </tbody>
-          </table>
-        </div>
+        <SortableTable table={table} caption={`Chains you can open, ${total} in all`} testId="chain-list" rowTestId="library-row" empty="No chain matches these filters." />
       )}
       {pages > 1 && (
         <nav aria-label="Pages" className="flex items-center gap-2 text-sm">

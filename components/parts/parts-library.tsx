@@ -6,9 +6,10 @@
  */
 import { useMemo, useState } from "react";
 import { useRouter } from "next/navigation";
-import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import { createColumnHelper, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import { Button, buttonClass } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
+import { SortableTable } from "@/components/ui/sortable-table";
 import { fetchJson, problemText } from "@/components/team/fetch-json";
 import type { Part } from "@/lib/chain/types";
 import { formatQuantity, parseQuantity } from "@/lib/units";
@@ -99,50 +100,7 @@ export function PartsLibrary({ teamId, parts, canEdit, limits }: { teamId: strin
       </div>
       {problem && <Notice tone="problem">{problem}</Notice>}
       {editing && <PartForm teamId={teamId} part={editing === "new" ? null : editing} onDone={() => { setEditing(null); router.refresh(); }} onCancel={() => setEditing(null)} />}
-      <div className="overflow-x-auto rounded-card border border-paper-rule bg-paper-raised shadow-card">
-        <table className="w-full text-left text-sm" data-testid="parts-table">
-          <caption className="sr-only">Op-amp models of the team</caption>
-          <thead className="border-b border-paper-rule bg-paper-sunk/60 text-xs uppercase tracking-wide text-graphite-500">
-            {table.getHeaderGroups().map((g) => (
-              <tr key={g.id}>
-                {g.headers.map((h) => {
-                  const s = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} className="px-3 py-2 font-medium" aria-sort={s ? (s === "asc" ? "ascending" : "descending") : undefined}>
-                      {h.column.getCanSort() ? (
-                        <button type="button" onClick={h.column.getToggleSortingHandler()} className="uppercase tracking-wide">
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true">{s === "asc" ? " ↑" : s === "desc" ? " ↓" : ""}</span>
-                        </button>
-                      ) : (
-                        flexRender(h.column.columnDef.header, h.getContext())
-                      )}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody>
-            {table.getRowModel().rows.map((r) => (
-              <tr key={r.id} className="border-b border-paper-rule last:border-b-0" data-testid="part-row">
-                {r.getVisibleCells().map((c) => (
-                  <td key={c.id} className="px-3 py-2 text-graphite-700">
-                    {flexRender(c.column.columnDef.cell, c.getContext())}
-                  </td>
-                ))}
-              </tr>
-            ))}
-            {parts.length === 0 && (
-              <tr>
-                <td colSpan={columns.length} className="px-3 py-6 text-center text-graphite-500">
-                  No models in the library yet.
-                </td>
-              </tr>
-            )}
-          </tbody>
-        </table>
-      </div>
+      <SortableTable table={table} caption="Op-amp models of the team" testId="parts-table" rowTestId="part-row" empty="No models in the library yet." compact />
       {canEdit && <CsvImport teamId={teamId} limits={limits} onStored={() => router.refresh()} />}
     </div>
   );
