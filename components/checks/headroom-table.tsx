@@ -92,6 +92,7 @@ export function HeadroomTable({ onFocusNode }: { onFocusNode?: (id: string) => v
   const actions = useEditorActions();
   const [sorting, setSorting] = useState<SortingState>([]);
   // ascending first: the smallest margin (the stage nearest a rail) comes to the top with one click
+  // eslint-disable-next-line react-hooks/incompatible-library -- the table object is mutable by design; no React Compiler in this build
   const table = useReactTable({ data, columns, state: { sorting }, onSortingChange: setSorting, sortDescFirst: false, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
   if (data.length === 0) return <p className="p-3 text-[13px] text-graphite-500">No analysed op-amp stage or converter yet.</p>;
   return (

@@ -106,6 +106,7 @@ export function ChainLibrary({ rows, total, page, pageSize, facets, creatableTea
     [creatableTeams],
   );
 
+  // eslint-disable-next-line react-hooks/incompatible-library -- the table object is mutable by design; no React Compiler in this build
   const table = useReactTable({
     data: rows,
     columns,

@@ -89,6 +89,7 @@ export function PartsLibrary({ teamId, parts, canEdit, limits }: { teamId: strin
     ],
     [canEdit, router],
   );
+  // eslint-disable-next-line react-hooks/incompatible-library -- the table object is mutable by design; no React Compiler in this build
   const table = useReactTable({ data: parts, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
   return (
     <div className="flex flex-col gap-5">

@@ -21,7 +21,7 @@ import {
   sallenKey,
   source,
 } from "./support/chain-builders";
-import { near, same, holds } from "./support/checks";
+import { near, same } from "./support/checks";
 import { acPeak, dcInterval, dcIntervalAtNet } from "./support/reference-analysis";
 import { analyze, nonFinitePaths, pathTo, stageOf, warningsOf } from "./support/engine-access";
 

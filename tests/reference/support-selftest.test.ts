@@ -45,7 +45,6 @@ import { integrate, sineSteadyState } from "./support/ode";
 // Heavy reference integrals and spawned processes: room for a loaded two-core machine.
 vi.setConfig({ testTimeout: 180_000, hookTimeout: 180_000 });
 
-const REL = 1e-9;
 const at = (chain: ReturnType<typeof single>, f: number) => responseAt(chain, "adc", f);
 
 describe("reference nodal solver: ideal stages against their closed forms", () => {

@@ -16,6 +16,7 @@ const columns = [col.accessor("name", { header: "Name" }), col.accessor("gain", 
 
 function Harness({ data }: { data: Row[] }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: "name", desc: false }]);
+  // eslint-disable-next-line react-hooks/incompatible-library -- the table object is mutable by design; no React Compiler in this build
   const table = useReactTable({ data, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
   return <SortableTable table={table} caption="Stages" testId="t" rowTestId="r" empty="Nothing here." />;
 }
