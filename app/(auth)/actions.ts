@@ -5,7 +5,7 @@ import { redirect, unstable_rethrow } from "next/navigation";
 import { z } from "zod";
 import { findUserByEmail, normalizeEmail, savePendingSignup } from "@/db/queries/users";
 import { signIn } from "@/lib/auth";
-import { hashPassword, PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH, verifyPassword } from "@/lib/auth/password";
+import { accountNameSchema, hashPassword, newPasswordSchema, PASSWORD_MAX_LENGTH, verifyPassword } from "@/lib/auth/password";
 import { safeCallbackPath } from "@/lib/auth/redirects";
 import { validate } from "@/lib/api/validate";
 
@@ -30,14 +30,7 @@ const passwordSignInSchema = z.object({
 
 const linkSignInSchema = z.object({ email });
 
-const signUpSchema = z.object({
-  name: z.string().trim().min(1, "enter your name").max(100, "at most 100 characters"),
-  email,
-  password: z
-    .string()
-    .min(PASSWORD_MIN_LENGTH, `at least ${PASSWORD_MIN_LENGTH} characters`)
-    .max(PASSWORD_MAX_LENGTH, `at most ${PASSWORD_MAX_LENGTH} characters`),
-});
+const signUpSchema = z.object({ name: accountNameSchema, email, password: newPasswordSchema });
 
 function fields(form: FormData, names: string[]): Record<string, string> {
   return Object.fromEntries(names.map((n) => [n, String(form.get(n) ?? "")]));

@@ -6,7 +6,7 @@ import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { EmailField } from "./email-field";
-import { PASSWORD_MIN_LENGTH } from "@/lib/auth/password-rules";
+import { NewPasswordField } from "./new-password-field";
 
 export function SignUpForm() {
   const [state, action, pending] = useActionState<FormState, FormData>(signUp, {});
@@ -15,16 +15,7 @@ export function SignUpForm() {
       {state.error ? <Notice tone="problem" title="Not sent">{state.error}</Notice> : null}
       <Field label="Name" name="name" autoComplete="name" required defaultValue={state.values?.name} error={state.fieldErrors?.name} />
       <EmailField state={state} />
-      <Field
-        label="Password"
-        name="password"
-        type="password"
-        autoComplete="new-password"
-        required
-        minLength={PASSWORD_MIN_LENGTH}
-        hint={`At least ${PASSWORD_MIN_LENGTH} characters.`}
-        error={state.fieldErrors?.password}
-      />
+      <NewPasswordField error={state.fieldErrors?.password} />
       <Button type="submit" disabled={pending}>
         {pending ? "Sending…" : "Create account"}
       </Button>

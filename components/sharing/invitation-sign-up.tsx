@@ -5,7 +5,7 @@ import { acceptInvitationAction, signUpThroughInvitation, type InvitationFormSta
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
-import { PASSWORD_MIN_LENGTH } from "@/lib/auth/password-rules";
+import { NewPasswordField } from "@/components/auth/new-password-field";
 
 /** Create the invited account: the address is the invited one and cannot be changed here. */
 export function InvitationSignUp({ token, email }: { token: string; email: string }) {
@@ -15,16 +15,7 @@ export function InvitationSignUp({ token, email }: { token: string; email: strin
       {state.error ? <Notice tone="problem">{state.error}</Notice> : null}
       <Field label="E-mail" name="email-shown" value={email} readOnly hint="The invitation is for this address." />
       <Field label="Name" name="name" autoComplete="name" required defaultValue={state.name} error={state.fieldErrors?.name} />
-      <Field
-        label="Password"
-        name="password"
-        type="password"
-        autoComplete="new-password"
-        required
-        minLength={PASSWORD_MIN_LENGTH}
-        hint={`At least ${PASSWORD_MIN_LENGTH} characters.`}
-        error={state.fieldErrors?.password}
-      />
+      <NewPasswordField error={state.fieldErrors?.password} />
       <Button type="submit" disabled={pending}>
         {pending ? "Creating…" : "Create account and accept"}
       </Button>

@@ -1,7 +1,7 @@
 import bcrypt from "bcryptjs";
 import { describe, expect, it, vi } from "vitest";
 import { authErrorMessage } from "@/lib/auth/error-messages";
-import { BCRYPT_COST, hashPassword, verifyPassword } from "@/lib/auth/password";
+import { accountNameSchema, BCRYPT_COST, hashPassword, newPasswordSchema, PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH, verifyPassword } from "@/lib/auth/password";
 import { safeCallbackPath } from "@/lib/auth/redirects";
 
 describe("hashPassword / verifyPassword", () => {
@@ -21,6 +21,23 @@ describe("hashPassword / verifyPassword", () => {
     const dummy = spy.mock.calls[0][1] as string;
     expect(bcrypt.getRounds(dummy)).toBe(BCRYPT_COST);
     spy.mockRestore();
+  });
+});
+
+describe("the new-account fields both sign-up forms share", () => {
+  it("holds a password to the length rule at both ends, with the limit in the message", () => {
+    expect(newPasswordSchema.safeParse("x".repeat(PASSWORD_MIN_LENGTH)).success).toBe(true);
+    expect(newPasswordSchema.safeParse("x".repeat(PASSWORD_MAX_LENGTH)).success).toBe(true);
+    const short = newPasswordSchema.safeParse("x".repeat(PASSWORD_MIN_LENGTH - 1));
+    expect(short.success ? null : short.error.issues[0].message).toBe(`at least ${PASSWORD_MIN_LENGTH} characters`);
+    const long = newPasswordSchema.safeParse("x".repeat(PASSWORD_MAX_LENGTH + 1));
+    expect(long.success ? null : long.error.issues[0].message).toBe(`at most ${PASSWORD_MAX_LENGTH} characters`);
+  });
+
+  it("trims a name and refuses one that is only spaces", () => {
+    expect(accountNameSchema.parse("  Ada Keel  ")).toBe("Ada Keel");
+    const blank = accountNameSchema.safeParse("   ");
+    expect(blank.success ? null : blank.error.issues[0].message).toBe("enter your name");
   });
 });
 

@@ -5,7 +5,7 @@ import { z } from "zod";
 import { createInvitedUser } from "@/db/queries/invitations";
 import { ensurePersonalTeam } from "@/db/queries/users";
 import { signIn } from "@/lib/auth";
-import { hashPassword, PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from "@/lib/auth/password";
+import { accountNameSchema, hashPassword, newPasswordSchema } from "@/lib/auth/password";
 import { getCurrentUser } from "@/lib/auth/session";
 import { validate } from "@/lib/api/validate";
 import { acceptFor } from "@/lib/review/accept";
@@ -26,13 +26,7 @@ export async function acceptInvitationAction(token: string): Promise<InvitationF
   redirect(result.to);
 }
 
-const signUpSchema = z.object({
-  name: z.string().trim().min(1, "enter your name").max(100, "at most 100 characters"),
-  password: z
-    .string()
-    .min(PASSWORD_MIN_LENGTH, `at least ${PASSWORD_MIN_LENGTH} characters`)
-    .max(PASSWORD_MAX_LENGTH, `at most ${PASSWORD_MAX_LENGTH} characters`),
-});
+const signUpSchema = z.object({ name: accountNameSchema, password: newPasswordSchema });
 
 /**
  * Sign up through an invitation: the account for the invited address is created (the mailed link
