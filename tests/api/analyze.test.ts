@@ -1,4 +1,4 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { jsonRequest, sessionModule, signInAs } from "./session-mock";
 
 vi.mock("@/lib/auth/session", () => sessionModule);
@@ -6,14 +6,9 @@ vi.mock("@/lib/auth/session", () => sessionModule);
 import { POST } from "@/app/api/analyze/route";
 import { ballastPressure, hullVibration } from "@/db/seed-data/chains";
 import { makeUser } from "../support/fixtures";
-import { useTempDatabase } from "../support/temp-db";
+import { freshDatabasePerTest } from "../support/temp-db";
 
-let tmp: ReturnType<typeof useTempDatabase>;
-beforeEach(() => {
-  tmp = useTempDatabase();
-  signInAs(makeUser("analyst"));
-});
-afterEach(() => tmp.cleanup());
+freshDatabasePerTest(() => signInAs(makeUser("analyst")));
 
 const post = (body?: unknown, raw?: string) => POST(jsonRequest("POST", "/api/analyze", body, raw), undefined);
 

@@ -1,4 +1,4 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { idContext, jsonRequest, sessionModule, signInAs } from "./session-mock";
 
 vi.mock("@/lib/auth/session", () => sessionModule);
@@ -7,14 +7,9 @@ import { DELETE, GET as getOne, PUT } from "@/app/api/chains/[id]/route";
 import { GET as list, POST as create } from "@/app/api/chains/route";
 import { getChainRow } from "@/db/queries/chains";
 import { draftDocument, makeChain, makeTeam, makeUser, share } from "../support/fixtures";
-import { useTempDatabase } from "../support/temp-db";
+import { freshDatabasePerTest } from "../support/temp-db";
 
-let tmp: ReturnType<typeof useTempDatabase>;
-beforeEach(() => {
-  tmp = useTempDatabase();
-  signInAs(null);
-});
-afterEach(() => tmp.cleanup());
+freshDatabasePerTest(() => signInAs(null));
 
 function world() {
   const admin = makeUser("admin");

@@ -1,5 +1,5 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
-import { idContext, jsonRequest, sessionModule, signInAs } from "./session-mock";
+import { describe, expect, it, vi } from "vitest";
+import { idContext, jsonRequest, paramsContext, sessionModule, signInAs } from "./session-mock";
 import { clearMail, mailModule, sentMail } from "./mail-mock";
 
 vi.mock("@/lib/auth/session", () => sessionModule);
@@ -10,17 +10,9 @@ import { DELETE as remove, PATCH as resolve } from "@/app/api/chains/[id]/commen
 import { saveUserSettings } from "@/db/queries/settings";
 import { insertChain } from "@/db/queries/chains";
 import { makeTeam, makeUser, share } from "../support/fixtures";
-import { useTempDatabase } from "../support/temp-db";
+import { freshDatabasePerTest } from "../support/temp-db";
 
-let tmp: ReturnType<typeof useTempDatabase>;
-beforeEach(() => {
-  tmp = useTempDatabase();
-  clearMail();
-});
-afterEach(() => tmp.cleanup());
-
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
-const ctx = (params: Record<string, string>) => ({ params: Promise.resolve(params) }) as any;
+freshDatabasePerTest(clearMail);
 
 function world() {
   const owner = makeUser("owner");
@@ -60,7 +52,7 @@ describe("comment threads", () => {
     signInAs(w.reviewer);
     const { comment } = await (await post(jsonRequest("POST", "/x", { body: "Whole chain: check rails" }), idContext(w.chainId))).json();
     signInAs(w.editor);
-    const resolved = await (await resolve(jsonRequest("PATCH", "/x", { resolved: true }), ctx({ id: w.chainId, commentId: comment.id }))).json();
+    const resolved = await (await resolve(jsonRequest("PATCH", "/x", { resolved: true }), paramsContext({ id: w.chainId, commentId: comment.id }))).json();
     expect(resolved.threads[0]).toMatchObject({ nodeId: null, resolvedBy: { id: w.editor.id } });
     await post(jsonRequest("POST", "/x", { body: "Not yet", parentId: comment.id }), idContext(w.chainId));
     const threads = await (await listThreads(jsonRequest("GET", "/x"), idContext(w.chainId))).json();
@@ -83,9 +75,9 @@ describe("comment threads", () => {
     signInAs(w.reviewer);
     const { comment } = await (await post(jsonRequest("POST", "/x", { body: "mine" }), idContext(w.chainId))).json();
     signInAs(w.editor);
-    expect((await remove(jsonRequest("DELETE", "/x"), ctx({ id: w.chainId, commentId: comment.id }))).status).toBe(403);
+    expect((await remove(jsonRequest("DELETE", "/x"), paramsContext({ id: w.chainId, commentId: comment.id }))).status).toBe(403);
     signInAs(w.reviewer);
-    expect((await remove(jsonRequest("DELETE", "/x"), ctx({ id: w.chainId, commentId: comment.id }))).status).toBe(200);
+    expect((await remove(jsonRequest("DELETE", "/x"), paramsContext({ id: w.chainId, commentId: comment.id }))).status).toBe(200);
   });
 
   it("sends no comment mail to someone who turned comment mails off", async () => {

@@ -5,7 +5,7 @@
  * its team, and for a refusal nothing of the chain at all.
  */
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { idContext, jsonRequest, sessionModule, signInAs } from "./session-mock";
+import { idContext, jsonRequest, paramsContext, sessionModule, signInAs } from "./session-mock";
 import { mailModule } from "./mail-mock";
 
 vi.mock("@/lib/auth/session", () => sessionModule);
@@ -62,7 +62,6 @@ interface RouteCase {
   call: (w: TeamWorld, me: User | null) => Call;
 }
 
-const ctx = (params: Record<string, string>) => ({ params: Promise.resolve(params) });
 const h = (f: unknown) => f as Handler;
 const version = (w: TeamWorld) => getChainRow(w.chainId)!.version;
 
@@ -123,12 +122,12 @@ const ROUTES: RouteCase[] = [
   {
     name: "PATCH /api/chains/:id/members/:userId",
     expect: SHARE,
-    call: (w) => ({ handler: h(memberRoute.PATCH), request: jsonRequest("PATCH", "/x", { role: "viewer" }), context: ctx({ id: w.chainId, userId: w.editor.id }) }),
+    call: (w) => ({ handler: h(memberRoute.PATCH), request: jsonRequest("PATCH", "/x", { role: "viewer" }), context: paramsContext({ id: w.chainId, userId: w.editor.id }) }),
   },
   {
     name: "DELETE /api/chains/:id/members/:userId",
     expect: SHARE,
-    call: (w) => ({ handler: h(memberRoute.DELETE), request: jsonRequest("DELETE", "/x"), context: ctx({ id: w.chainId, userId: w.viewer.id }) }),
+    call: (w) => ({ handler: h(memberRoute.DELETE), request: jsonRequest("DELETE", "/x"), context: paramsContext({ id: w.chainId, userId: w.viewer.id }) }),
   },
   { name: "GET /api/chains/:id/invitations", expect: SHARE, call: (w) => ({ handler: h(chainInvitesRoute.GET), request: jsonRequest("GET", "/x"), context: idContext(w.chainId) }) },
   {
@@ -139,7 +138,7 @@ const ROUTES: RouteCase[] = [
   {
     name: "DELETE /api/chains/:id/invitations/:invitationId",
     expect: SHARE,
-    call: (w) => ({ handler: h(chainInviteRoute.DELETE), request: jsonRequest("DELETE", "/x"), context: ctx({ id: w.chainId, invitationId: w.chainInvitationId }) }),
+    call: (w) => ({ handler: h(chainInviteRoute.DELETE), request: jsonRequest("DELETE", "/x"), context: paramsContext({ id: w.chainId, invitationId: w.chainInvitationId }) }),
   },
   { name: "GET /api/chains/:id/reviews", expect: VIEW, call: (w) => ({ handler: h(reviewsRoute.GET), request: jsonRequest("GET", "/x"), context: idContext(w.chainId) }) },
   {
@@ -159,18 +158,18 @@ const ROUTES: RouteCase[] = [
   {
     name: "PATCH /api/chains/:id/comments/:commentId",
     expect: "200 200 200 403 403 200 404 401",
-    call: (w) => ({ handler: h(commentRoute.PATCH), request: jsonRequest("PATCH", "/x", { resolved: true }), context: ctx({ id: w.chainId, commentId: w.threadId }) }),
+    call: (w) => ({ handler: h(commentRoute.PATCH), request: jsonRequest("PATCH", "/x", { resolved: true }), context: paramsContext({ id: w.chainId, commentId: w.threadId }) }),
   },
   {
     name: "DELETE /api/chains/:id/comments/:commentId (the reviewer's thread)",
     expect: "200 403 200 403 403 200 404 401",
-    call: (w) => ({ handler: h(commentRoute.DELETE), request: jsonRequest("DELETE", "/x"), context: ctx({ id: w.chainId, commentId: w.threadId }) }),
+    call: (w) => ({ handler: h(commentRoute.DELETE), request: jsonRequest("DELETE", "/x"), context: paramsContext({ id: w.chainId, commentId: w.threadId }) }),
   },
   { name: "GET /api/chains/:id/revisions", expect: VIEW, call: (w) => ({ handler: h(revisionsRoute.GET), request: jsonRequest("GET", "/x"), context: idContext(w.chainId) }) },
   {
     name: "GET /api/chains/:id/revisions/:revisionId",
     expect: VIEW,
-    call: (w) => ({ handler: h(revisionRoute.GET), request: jsonRequest("GET", "/x"), context: ctx({ id: w.chainId, revisionId: w.firstRevisionId }) }),
+    call: (w) => ({ handler: h(revisionRoute.GET), request: jsonRequest("GET", "/x"), context: paramsContext({ id: w.chainId, revisionId: w.firstRevisionId }) }),
   },
   {
     name: "GET /api/chains/:id/revisions/compare",
@@ -180,7 +179,7 @@ const ROUTES: RouteCase[] = [
   {
     name: "POST /api/chains/:id/revisions/:revisionId/restore",
     expect: "201 201 403 403 403 201 404 401",
-    call: (w) => ({ handler: h(restoreRoute.POST), request: jsonRequest("POST", "/x", { baseVersion: version(w) }), context: ctx({ id: w.chainId, revisionId: w.firstRevisionId }) }),
+    call: (w) => ({ handler: h(restoreRoute.POST), request: jsonRequest("POST", "/x", { baseVersion: version(w) }), context: paramsContext({ id: w.chainId, revisionId: w.firstRevisionId }) }),
   },
   { name: "GET /api/teams", expect: "200 200 200 200 200 200 200 401", call: () => ({ handler: h(teamsRoute.GET), request: jsonRequest("GET", "/api/teams"), context: undefined }) },
   { name: "GET /api/teams/:id", expect: TEAM_VIEW, call: (w) => ({ handler: h(teamRoute.GET), request: jsonRequest("GET", "/x"), context: idContext(w.teamId) }) },
@@ -188,12 +187,12 @@ const ROUTES: RouteCase[] = [
   {
     name: "PATCH /api/teams/:id/members/:userId",
     expect: TEAM_MANAGE,
-    call: (w) => ({ handler: h(teamMemberRoute.PATCH), request: jsonRequest("PATCH", "/x", { role: "reviewer" }), context: ctx({ id: w.teamId, userId: w.member.id }) }),
+    call: (w) => ({ handler: h(teamMemberRoute.PATCH), request: jsonRequest("PATCH", "/x", { role: "reviewer" }), context: paramsContext({ id: w.teamId, userId: w.member.id }) }),
   },
   {
     name: "DELETE /api/teams/:id/members/:userId",
     expect: TEAM_MANAGE,
-    call: (w) => ({ handler: h(teamMemberRoute.DELETE), request: jsonRequest("DELETE", "/x"), context: ctx({ id: w.teamId, userId: w.member.id }) }),
+    call: (w) => ({ handler: h(teamMemberRoute.DELETE), request: jsonRequest("DELETE", "/x"), context: paramsContext({ id: w.teamId, userId: w.member.id }) }),
   },
   { name: "GET /api/teams/:id/invitations", expect: TEAM_MANAGE, call: (w) => ({ handler: h(teamInvitesRoute.GET), request: jsonRequest("GET", "/x"), context: idContext(w.teamId) }) },
   {
@@ -204,7 +203,7 @@ const ROUTES: RouteCase[] = [
   {
     name: "DELETE /api/teams/:id/invitations/:invitationId",
     expect: TEAM_MANAGE,
-    call: (w) => ({ handler: h(teamInviteRoute.DELETE), request: jsonRequest("DELETE", "/x"), context: ctx({ id: w.teamId, invitationId: w.teamInvitationId }) }),
+    call: (w) => ({ handler: h(teamInviteRoute.DELETE), request: jsonRequest("DELETE", "/x"), context: paramsContext({ id: w.teamId, invitationId: w.teamInvitationId }) }),
   },
   { name: "GET /api/parts", expect: TEAM_VIEW, call: (w) => ({ handler: h(partsRoute.GET), request: jsonRequest("GET", `/api/parts?teamId=${w.teamId}`), context: undefined }) },
   {
@@ -231,7 +230,7 @@ const ROUTES: RouteCase[] = [
     tokenHolderReads: true,
     call: (w) => {
       const { token } = createInvitation("someone@test.example", { chainId: w.chainId, teamId: w.teamId, role: "viewer" }, w.owner.id);
-      return { handler: h(invitationRoute.GET), request: jsonRequest("GET", "/x"), context: ctx({ token }) };
+      return { handler: h(invitationRoute.GET), request: jsonRequest("GET", "/x"), context: paramsContext({ token }) };
     },
   },
   {
@@ -239,7 +238,7 @@ const ROUTES: RouteCase[] = [
     expect: "200 200 200 200 200 200 200 401",
     call: (w, me) => {
       const { token } = createInvitation(me?.email ?? "nobody@test.example", { chainId: w.chainId, teamId: w.teamId, role: "viewer" }, w.owner.id);
-      return { handler: h(acceptRoute.POST), request: jsonRequest("POST", "/x"), context: ctx({ token }) };
+      return { handler: h(acceptRoute.POST), request: jsonRequest("POST", "/x"), context: paramsContext({ token }) };
     },
   },
   {
@@ -247,7 +246,7 @@ const ROUTES: RouteCase[] = [
     expect: "403 403 403 403 403 403 403 401",
     call: (w) => {
       const { token } = createInvitation(w.stranger.email!, { chainId: w.chainId, teamId: w.teamId, role: "editor" }, w.owner.id);
-      return { handler: h(acceptRoute.POST), request: jsonRequest("POST", "/x"), context: ctx({ token }) };
+      return { handler: h(acceptRoute.POST), request: jsonRequest("POST", "/x"), context: paramsContext({ token }) };
     },
   },
 ];

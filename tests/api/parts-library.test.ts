@@ -1,4 +1,4 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { idContext, jsonRequest, sessionModule, signInAs } from "./session-mock";
 
 vi.mock("@/lib/auth/session", () => sessionModule);
@@ -10,13 +10,9 @@ import { GET as exportCsv } from "@/app/api/parts/export/route";
 import { listParts } from "@/db/queries/parts";
 import { CSV_MAX_BYTES } from "@/lib/parts-csv";
 import { makeTeam, makeUser } from "../support/fixtures";
-import { useTempDatabase } from "../support/temp-db";
+import { freshDatabasePerTest } from "../support/temp-db";
 
-let tmp: ReturnType<typeof useTempDatabase>;
-beforeEach(() => {
-  tmp = useTempDatabase();
-});
-afterEach(() => tmp.cleanup());
+freshDatabasePerTest();
 
 function world() {
   const engineer = makeUser("engineer");

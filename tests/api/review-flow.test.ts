@@ -1,4 +1,4 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { idContext, jsonRequest, sessionModule, signInAs } from "./session-mock";
 import { clearMail, mailModule, sentMail } from "./mail-mock";
 
@@ -14,14 +14,9 @@ import { saveUserSettings } from "@/db/queries/settings";
 import { getDb } from "@/db/connection";
 import { auditLog } from "@/db/schema";
 import { draftDocument, makeChain, makeTeam, makeUser, share } from "../support/fixtures";
-import { useTempDatabase } from "../support/temp-db";
+import { freshDatabasePerTest } from "../support/temp-db";
 
-let tmp: ReturnType<typeof useTempDatabase>;
-beforeEach(() => {
-  tmp = useTempDatabase();
-  clearMail();
-});
-afterEach(() => tmp.cleanup());
+freshDatabasePerTest(clearMail);
 
 function world() {
   const engineer = makeUser("engineer");

@@ -1,5 +1,5 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
-import { idContext, jsonRequest, sessionModule, signInAs } from "./session-mock";
+import { describe, expect, it, vi } from "vitest";
+import { idContext, jsonRequest, paramsContext, sessionModule, signInAs } from "./session-mock";
 
 vi.mock("@/lib/auth/session", () => sessionModule);
 
@@ -11,16 +11,10 @@ import { getChainRow, insertChain } from "@/db/queries/chains";
 import { saveChainWithHistory } from "@/db/queries/history";
 import { hullVibration } from "@/db/seed-data/chains";
 import { makeTeam, makeUser } from "../support/fixtures";
-import { useTempDatabase } from "../support/temp-db";
+import { freshDatabasePerTest } from "../support/temp-db";
 
-let tmp: ReturnType<typeof useTempDatabase>;
-beforeEach(() => {
-  tmp = useTempDatabase();
-});
-afterEach(() => tmp.cleanup());
+freshDatabasePerTest();
 
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
-const ctx = (params: Record<string, string>) => ({ params: Promise.resolve(params) }) as any;
 const clone = <T>(x: T): T => JSON.parse(JSON.stringify(x)) as T;
 
 function world() {
@@ -116,9 +110,9 @@ describe("revisions", () => {
     signInAs(w.ann);
     await put(w.chainId, withGain(30e3));
     const [, first] = await revisions(w.chainId);
-    const stale = await restore(jsonRequest("POST", "/x", { baseVersion: 1 }), ctx({ id: w.chainId, revisionId: first.id }));
+    const stale = await restore(jsonRequest("POST", "/x", { baseVersion: 1 }), paramsContext({ id: w.chainId, revisionId: first.id }));
     expect(stale.status).toBe(409);
-    const res = await restore(jsonRequest("POST", "/x", { baseVersion: getChainRow(w.chainId)!.version }), ctx({ id: w.chainId, revisionId: first.id }));
+    const res = await restore(jsonRequest("POST", "/x", { baseVersion: getChainRow(w.chainId)!.version }), paramsContext({ id: w.chainId, revisionId: first.id }));
     expect(res.status).toBe(201);
     const body = await res.json();
     expect(body.revision.summary).toBe("Restored revision 1");

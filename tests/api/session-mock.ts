@@ -30,3 +30,8 @@ export function jsonRequest(method: string, url: string, body?: unknown, raw?: s
 export function idContext(id: string): { params: Promise<{ id: string }> } {
   return { params: Promise.resolve({ id }) };
 }
+
+/** The context object Next passes to a route handler with several dynamic segments, e.g. { id, userId }. */
+export function paramsContext<P extends Record<string, string>>(params: P): { params: Promise<P> } {
+  return { params: Promise.resolve(params) };
+}

@@ -1,5 +1,5 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
-import { idContext, jsonRequest, sessionModule, signInAs } from "./session-mock";
+import { describe, expect, it, vi } from "vitest";
+import { idContext, jsonRequest, paramsContext, sessionModule, signInAs } from "./session-mock";
 import { clearMail, lastLinkTo, mailModule, sentMail } from "./mail-mock";
 
 vi.mock("@/lib/auth/session", () => sessionModule);
@@ -16,17 +16,9 @@ import { acceptInvitation, createInvitation, hashToken, INVITATION_TTL_MS } from
 import { INVITES_PER_ADDRESS_PER_HOUR } from "@/lib/review/invite";
 import { auditLog, invitations } from "@/db/schema";
 import { makeChain, makeTeam, makeUser, share } from "../support/fixtures";
-import { useTempDatabase } from "../support/temp-db";
+import { freshDatabasePerTest } from "../support/temp-db";
 
-let tmp: ReturnType<typeof useTempDatabase>;
-beforeEach(() => {
-  tmp = useTempDatabase();
-  clearMail();
-});
-afterEach(() => tmp.cleanup());
-
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
-const ctx = (params: Record<string, string>) => ({ params: Promise.resolve(params) }) as any;
+freshDatabasePerTest(clearMail);
 
 function world() {
   const owner = makeUser("owner");
@@ -56,18 +48,18 @@ describe("invitations to a chain", () => {
     expect(stored[0].tokenHash).toBe(hashToken(token));
     expect(JSON.stringify(stored)).not.toContain(token);
 
-    const info = await (await readInvitation(jsonRequest("GET", "/x"), ctx({ token }))).json();
+    const info = await (await readInvitation(jsonRequest("GET", "/x"), paramsContext({ token }))).json();
     expect(info.invitation).toMatchObject({ state: "open", role: "reviewer", kind: "chain", name: "Channel A" });
 
     signInAs(guest);
-    const ok = await accept(jsonRequest("POST", "/x"), ctx({ token }));
+    const ok = await accept(jsonRequest("POST", "/x"), paramsContext({ token }));
     expect(ok.status).toBe(200);
     expect((await ok.json()).location).toBe(`/chains/${w.chainId}`);
     const chain = await (await getChain(jsonRequest("GET", "/x"), idContext(w.chainId))).json();
     expect(chain.chain.role).toBe("reviewer");
-    const again = await accept(jsonRequest("POST", "/x"), ctx({ token }));
+    const again = await accept(jsonRequest("POST", "/x"), paramsContext({ token }));
     expect(again.status).toBe(409);
-    const after = await (await readInvitation(jsonRequest("GET", "/x"), ctx({ token }))).json();
+    const after = await (await readInvitation(jsonRequest("GET", "/x"), paramsContext({ token }))).json();
     expect(after.invitation).toMatchObject({ state: "used", name: null });
     const actions = getDb().select().from(auditLog).all().map((a) => a.action);
     expect(actions).toEqual(expect.arrayContaining(["invitation.send", "invitation.accept"]));
@@ -77,7 +69,7 @@ describe("invitations to a chain", () => {
     const w = world();
     const { token } = createInvitation("someone.else@test.example", { chainId: w.chainId, teamId: w.teamId, role: "editor" }, w.owner.id);
     signInAs(w.colleague);
-    const res = await accept(jsonRequest("POST", "/x"), ctx({ token }));
+    const res = await accept(jsonRequest("POST", "/x"), paramsContext({ token }));
     expect(res.status).toBe(403);
     expect((await res.json()).error).toMatch(/another e-mail address/);
   });
@@ -88,9 +80,9 @@ describe("invitations to a chain", () => {
     const sent = new Date(Date.now() - INVITATION_TTL_MS - 1000);
     const { token } = createInvitation(guest.email!, { chainId: w.chainId, teamId: w.teamId, role: "viewer" }, w.owner.id, sent);
     signInAs(guest);
-    expect((await accept(jsonRequest("POST", "/x"), ctx({ token }))).status).toBe(410);
-    expect((await accept(jsonRequest("POST", "/x"), ctx({ token: "not-a-token" }))).status).toBe(404);
-    expect((await readInvitation(jsonRequest("GET", "/x"), ctx({ token: "not-a-token" }))).status).toBe(404);
+    expect((await accept(jsonRequest("POST", "/x"), paramsContext({ token }))).status).toBe(410);
+    expect((await accept(jsonRequest("POST", "/x"), paramsContext({ token: "not-a-token" }))).status).toBe(404);
+    expect((await readInvitation(jsonRequest("GET", "/x"), paramsContext({ token: "not-a-token" }))).status).toBe(404);
   });
 
   it("cannot be used twice even by two requests at once", () => {
@@ -146,11 +138,11 @@ describe("shares", () => {
     expect((await addMember(jsonRequest("POST", "/x", { userId: w.colleague.id, role: "viewer" }), idContext(w.chainId))).status).toBe(409);
     const outsider = makeUser("outsider");
     expect((await addMember(jsonRequest("POST", "/x", { userId: outsider.id, role: "viewer" }), idContext(w.chainId))).status).toBe(400);
-    const lastOwner = await changeMember(jsonRequest("PATCH", "/x", { role: "viewer" }), ctx({ id: w.chainId, userId: w.owner.id }));
+    const lastOwner = await changeMember(jsonRequest("PATCH", "/x", { role: "viewer" }), paramsContext({ id: w.chainId, userId: w.owner.id }));
     expect(lastOwner.status).toBe(409);
-    expect((await removeMember(jsonRequest("DELETE", "/x"), ctx({ id: w.chainId, userId: w.owner.id }))).status).toBe(409);
-    expect((await changeMember(jsonRequest("PATCH", "/x", { role: "owner" }), ctx({ id: w.chainId, userId: w.colleague.id }))).status).toBe(200);
-    expect((await changeMember(jsonRequest("PATCH", "/x", { role: "viewer" }), ctx({ id: w.chainId, userId: w.owner.id }))).status).toBe(200);
+    expect((await removeMember(jsonRequest("DELETE", "/x"), paramsContext({ id: w.chainId, userId: w.owner.id }))).status).toBe(409);
+    expect((await changeMember(jsonRequest("PATCH", "/x", { role: "owner" }), paramsContext({ id: w.chainId, userId: w.colleague.id }))).status).toBe(200);
+    expect((await changeMember(jsonRequest("PATCH", "/x", { role: "viewer" }), paramsContext({ id: w.chainId, userId: w.owner.id }))).status).toBe(200);
     signInAs(w.colleague);
     const list = await (await listMembers(jsonRequest("GET", "/x"), idContext(w.chainId))).json();
     expect(list.members.map((m: { role: string }) => m.role)).toEqual(["owner", "viewer"]);

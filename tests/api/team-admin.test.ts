@@ -1,5 +1,5 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
-import { idContext, jsonRequest, sessionModule, signInAs } from "./session-mock";
+import { describe, expect, it, vi } from "vitest";
+import { idContext, jsonRequest, paramsContext, sessionModule, signInAs } from "./session-mock";
 import { clearMail, lastLinkTo, mailModule, sentMail } from "./mail-mock";
 
 vi.mock("@/lib/auth/session", () => sessionModule);
@@ -13,17 +13,9 @@ import { getTeamRole } from "@/db/queries/teams";
 import { getDb } from "@/db/connection";
 import { auditLog } from "@/db/schema";
 import { makeTeam, makeUser } from "../support/fixtures";
-import { useTempDatabase } from "../support/temp-db";
+import { freshDatabasePerTest } from "../support/temp-db";
 
-let tmp: ReturnType<typeof useTempDatabase>;
-beforeEach(() => {
-  tmp = useTempDatabase();
-  clearMail();
-});
-afterEach(() => tmp.cleanup());
-
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
-const ctx = (params: Record<string, string>) => ({ params: Promise.resolve(params) }) as any;
+freshDatabasePerTest(clearMail);
 
 describe("team administration", () => {
   it("changes roles and removes members, keeping at least one admin, with audit lines", async () => {
@@ -34,13 +26,13 @@ describe("team administration", () => {
       [eng, "engineer"],
     ]);
     signInAs(admin);
-    expect((await changeRole(jsonRequest("PATCH", "/x", { role: "engineer" }), ctx({ id: teamId, userId: admin.id }))).status).toBe(409);
-    expect((await changeRole(jsonRequest("PATCH", "/x", { role: "reviewer" }), ctx({ id: teamId, userId: eng.id }))).status).toBe(200);
+    expect((await changeRole(jsonRequest("PATCH", "/x", { role: "engineer" }), paramsContext({ id: teamId, userId: admin.id }))).status).toBe(409);
+    expect((await changeRole(jsonRequest("PATCH", "/x", { role: "reviewer" }), paramsContext({ id: teamId, userId: eng.id }))).status).toBe(200);
     expect(getTeamRole(eng.id, teamId)).toBe("reviewer");
-    expect((await changeRole(jsonRequest("PATCH", "/x", { role: "boss" }), ctx({ id: teamId, userId: eng.id }))).status).toBe(400);
-    expect((await removeMember(jsonRequest("DELETE", "/x"), ctx({ id: teamId, userId: eng.id }))).status).toBe(200);
+    expect((await changeRole(jsonRequest("PATCH", "/x", { role: "boss" }), paramsContext({ id: teamId, userId: eng.id }))).status).toBe(400);
+    expect((await removeMember(jsonRequest("DELETE", "/x"), paramsContext({ id: teamId, userId: eng.id }))).status).toBe(200);
     expect(getTeamRole(eng.id, teamId)).toBeNull();
-    expect((await removeMember(jsonRequest("DELETE", "/x"), ctx({ id: teamId, userId: eng.id }))).status).toBe(404);
+    expect((await removeMember(jsonRequest("DELETE", "/x"), paramsContext({ id: teamId, userId: eng.id }))).status).toBe(404);
     const actions = getDb().select().from(auditLog).all().map((a) => a.action);
     expect(actions).toEqual(["team.role", "team.remove"]);
   });
@@ -54,7 +46,7 @@ describe("team administration", () => {
     expect(sentMail[0].subject).toBe(`${admin.name} invited you to Keel on Chainwright`);
     const token = lastLinkTo(newcomer.email!)!.split("/").pop()!;
     signInAs(newcomer);
-    const res = await accept(jsonRequest("POST", "/x"), ctx({ token }));
+    const res = await accept(jsonRequest("POST", "/x"), paramsContext({ token }));
     expect((await res.json()).location).toBe(`/teams/${teamId}`);
     expect(getTeamRole(newcomer.id, teamId)).toBe("engineer");
     const team = await (await getTeam(jsonRequest("GET", "/x"), idContext(teamId))).json();

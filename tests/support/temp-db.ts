@@ -1,4 +1,5 @@
 import { mkdtempSync, rmSync } from "node:fs";
+import { afterEach, beforeEach } from "vitest";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { closeDb, getDb } from "@/db/connection";
@@ -24,4 +25,21 @@ export function useTempDatabase(): { dir: string; file: string; cleanup: () => v
       resetEnvCache();
     },
   };
+}
+
+/**
+ * Give every test of the file (or of the describe block it is called in) its own fresh database,
+ * removed again after the test. `setUp` runs once the database is ready, e.g. to clear recorded mail
+ * or sign someone in.
+ */
+export function freshDatabasePerTest(setUp?: () => void): void {
+  let tmp: ReturnType<typeof useTempDatabase> | undefined;
+  beforeEach(() => {
+    tmp = useTempDatabase();
+    setUp?.();
+  });
+  afterEach(() => {
+    tmp?.cleanup();
+    tmp = undefined;
+  });
 }

@@ -1,4 +1,4 @@
-import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/connection";
 import { chainMembers, teamMembers, type ChainRole, type TeamRole } from "@/db/schema";
 import { and, eq } from "drizzle-orm";
@@ -15,7 +15,7 @@ import {
   type ChainAction,
 } from "@/lib/auth/permissions";
 import { makeChain, makeTeam, makeUser, share } from "../support/fixtures";
-import { useTempDatabase } from "../support/temp-db";
+import { freshDatabasePerTest } from "../support/temp-db";
 
 // The whole matrix written out by hand from the role rules in issue 2:
 // V view, X export, C comment, R review, E edit, S share, D delete.
@@ -87,11 +87,7 @@ describe("effectiveChainRole", () => {
 });
 
 describe("chainRights / can / assertChain against the database", () => {
-  let db: ReturnType<typeof useTempDatabase>;
-  beforeEach(() => {
-    db = useTempDatabase();
-  });
-  afterEach(() => db.cleanup());
+  freshDatabasePerTest();
 
   function world() {
     const admin = makeUser("admin");

@@ -1,4 +1,4 @@
-import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/connection";
 import { getChainRow, insertChain, listChainsForUser, saveChainVersion } from "@/db/queries/chains";
@@ -13,13 +13,9 @@ import {
 } from "@/db/queries/users";
 import { chainMembers, chains, revisions, users } from "@/db/schema";
 import { draftDocument, makeChain, makeTeam, makeUser, share } from "../support/fixtures";
-import { useTempDatabase } from "../support/temp-db";
+import { freshDatabasePerTest } from "../support/temp-db";
 
-let tmp: ReturnType<typeof useTempDatabase>;
-beforeEach(() => {
-  tmp = useTempDatabase();
-});
-afterEach(() => tmp.cleanup());
+freshDatabasePerTest();
 
 describe("openDatabase settings", () => {
   it("uses WAL, enforces foreign keys and waits on a busy database", () => {

@@ -1,4 +1,4 @@
-import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { count, eq } from "drizzle-orm";
 import { getDb } from "@/db/connection";
 import { listChainsForUser } from "@/db/queries/chains";
@@ -12,13 +12,9 @@ import { validateChain } from "@/lib/chain/schema";
 import { analyzeChain } from "@/lib/engine";
 import { effectiveChainRole } from "@/lib/auth/permissions";
 import { makeUser } from "../support/fixtures";
-import { useTempDatabase } from "../support/temp-db";
+import { freshDatabasePerTest } from "../support/temp-db";
 
-let tmp: ReturnType<typeof useTempDatabase>;
-beforeEach(() => {
-  tmp = useTempDatabase();
-});
-afterEach(() => tmp.cleanup());
+freshDatabasePerTest();
 
 describe("demo chain documents", () => {
   it.each([
