@@ -8,7 +8,7 @@ import { useState } from "react";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
-import { fetchJson, problemText } from "@/components/team/fetch-json";
+import { fetchJson, problemText } from "@/lib/api/client/fetch-json";
 import { chainApiBase, teamKeys, useThreads, type ThreadData } from "@/components/review/queries";
 import { shortTime } from "@/components/review/review-words";
 import { useEditor, useEditorActions } from "@/lib/store/editor-context";

@@ -8,7 +8,7 @@ import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { QueryClient, QueryClientProvider, useQuery } from "@tanstack/react-query";
 import { Notice } from "@/components/ui/notice";
-import { fetchJson, problemText } from "@/components/team/fetch-json";
+import { fetchJson, problemText } from "@/lib/api/client/fetch-json";
 import { shortTime } from "@/components/review/review-words";
 import type { ChainDiff } from "@/lib/history/diff";
 import type { KeyResultChange } from "@/lib/history/key-results";

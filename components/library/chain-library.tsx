@@ -14,7 +14,7 @@ import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { ReviewBadge } from "@/components/review/review-badge";
 import { ROLE_WORDS, shortTime } from "@/components/review/review-words";
-import { fetchJson, problemText } from "@/components/team/fetch-json";
+import { fetchJson, problemText } from "@/lib/api/client/fetch-json";
 
 export interface LibraryRowView {
   id: string;

@@ -6,7 +6,7 @@
  */
 import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
-import { fetchJson, problemText } from "@/components/team/fetch-json";
+import { fetchJson, problemText } from "@/lib/api/client/fetch-json";
 import { useChainQuery } from "@/lib/api/client/chains";
 import type { Part } from "@/lib/chain/types";
 import { useEditor, useEditorActions } from "@/lib/store/editor-context";

@@ -10,7 +10,7 @@ import { createColumnHelper, getCoreRowModel, getSortedRowModel, useReactTable, 
 import { Button, buttonClass } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { SortableTable } from "@/components/ui/sortable-table";
-import { fetchJson, problemText } from "@/components/team/fetch-json";
+import { fetchJson, problemText } from "@/lib/api/client/fetch-json";
 import type { Part } from "@/lib/chain/types";
 import { formatQuantity, parseQuantity } from "@/lib/units";
 import { FIGURES } from "./part-figures";

@@ -1,7 +1,7 @@
 "use client";
 /** TanStack Query keys and fetchers for the team panels of one chain. */
 import { useQuery } from "@tanstack/react-query";
-import { fetchJson } from "@/components/team/fetch-json";
+import { fetchJson } from "@/lib/api/client/fetch-json";
 
 export interface RoundView {
   round: string;

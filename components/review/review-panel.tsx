@@ -7,7 +7,7 @@ import { useState } from "react";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { Notice } from "@/components/ui/notice";
 import { Button } from "@/components/ui/button";
-import { fetchJson, problemText } from "@/components/team/fetch-json";
+import { fetchJson, problemText } from "@/lib/api/client/fetch-json";
 import { useEditor } from "@/lib/store/editor-context";
 import { ReviewBadge } from "./review-badge";
 import { chainApiBase, teamKeys, useMembers, useReviews, type RoundView } from "./queries";

@@ -7,7 +7,7 @@ import { useState } from "react";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
-import { fetchJson, problemText } from "@/components/team/fetch-json";
+import { fetchJson, problemText } from "@/lib/api/client/fetch-json";
 import { chainApiBase, teamKeys, useMembers } from "@/components/review/queries";
 import { ROLE_WORDS, shortTime } from "@/components/review/review-words";
 

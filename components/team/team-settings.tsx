@@ -5,7 +5,7 @@ import { useRouter } from "next/navigation";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { ROLE_WORDS, shortTime } from "@/components/review/review-words";
-import { fetchJson, problemText } from "./fetch-json";
+import { fetchJson, problemText } from "@/lib/api/client/fetch-json";
 
 const TEAM_ROLES = ["admin", "engineer", "reviewer"] as const;
 

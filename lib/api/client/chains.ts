@@ -5,6 +5,9 @@
  */
 "use client";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { ApiFailure, fetchJson } from "./fetch-json";
+
+export { ApiFailure };
 
 export interface ChainDto {
   id: string;
@@ -20,41 +23,10 @@ export interface ChainDto {
   document?: unknown;
 }
 
-export class ApiFailure extends Error {
-  constructor(
-    readonly status: number,
-    readonly body: { error?: string; errors?: { path: string; message: string }[]; currentVersion?: number; [k: string]: unknown },
-  ) {
-    super(body.error ?? body.errors?.map((e) => `${e.path}: ${e.message}`).join("; ") ?? `request failed (${status})`);
-    this.name = "ApiFailure";
-  }
-  get isConflict() {
-    return this.status === 409;
-  }
-}
-
-async function call<T>(url: string, init?: RequestInit): Promise<T> {
-  let res: Response;
-  try {
-    res = await fetch(url, { ...init, headers: { "content-type": "application/json", ...(init?.headers ?? {}) }, credentials: "same-origin" });
-  } catch (e) {
-    throw new ApiFailure(0, { error: `the server could not be reached (${e instanceof Error ? e.message : String(e)})` });
-  }
-  const text = await res.text();
-  let body: unknown = {};
-  try {
-    body = text ? JSON.parse(text) : {};
-  } catch {
-    body = { error: `the server answered ${res.status} without JSON` };
-  }
-  if (!res.ok) throw new ApiFailure(res.status, body as ApiFailure["body"]);
-  return body as T;
-}
-
 export const chainKey = (id: string) => ["chain", id] as const;
 
 export async function fetchChain(id: string): Promise<ChainDto> {
-  return (await call<{ chain: ChainDto }>(`/api/chains/${encodeURIComponent(id)}`)).chain;
+  return (await fetchJson<{ chain: ChainDto }>(`/api/chains/${encodeURIComponent(id)}`)).chain;
 }
 
 export interface SaveInput {
@@ -67,11 +39,11 @@ export interface SaveInput {
 /** Save a new version; a stale baseVersion throws ApiFailure 409 with `currentVersion`. */
 export async function saveChain(input: SaveInput): Promise<ChainDto> {
   const { id, ...body } = input;
-  return (await call<{ chain: ChainDto }>(`/api/chains/${encodeURIComponent(id)}`, { method: "PUT", body: JSON.stringify(body) })).chain;
+  return (await fetchJson<{ chain: ChainDto }>(`/api/chains/${encodeURIComponent(id)}`, { method: "PUT", body })).chain;
 }
 
 export async function createChain(input: { name?: string; document?: unknown; teamId?: string }): Promise<ChainDto> {
-  return (await call<{ chain: ChainDto }>(`/api/chains`, { method: "POST", body: JSON.stringify(input) })).chain;
+  return (await fetchJson<{ chain: ChainDto }>(`/api/chains`, { method: "POST", body: input })).chain;
 }
 
 export function useChainQuery(id: string, initial?: ChainDto) {

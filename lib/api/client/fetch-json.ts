@@ -1,12 +1,23 @@
-"use client";
 /**
- * Browser calls to the team routes. A refusal becomes ApiFailure (the workspace client's error type)
- * carrying the route's JSON body, so forms can show the field errors the server named.
+ * The one browser-side JSON fetcher for our API routes. A refusal becomes ApiFailure carrying the
+ * route's JSON body, so callers can show the field errors the server named, tell a stale save (409,
+ * with `currentVersion`) from a lost session, and read a network failure as status 0.
  */
-import { ApiFailure } from "@/lib/api/client/chains";
 
-export { ApiFailure };
+export class ApiFailure extends Error {
+  constructor(
+    readonly status: number,
+    readonly body: { error?: string; errors?: { path: string; message: string }[]; currentVersion?: number; [k: string]: unknown },
+  ) {
+    super(body.error ?? body.errors?.map((e) => `${e.path}: ${e.message}`).join("; ") ?? `request failed (${status})`);
+    this.name = "ApiFailure";
+  }
+  get isConflict() {
+    return this.status === 409;
+  }
+}
 
+/** Call a route; `body` is sent as JSON. Resolves to the parsed answer, throws ApiFailure otherwise. */
 export async function fetchJson<T>(url: string, init?: { method?: string; body?: unknown }): Promise<T> {
   let res: Response;
   try {
