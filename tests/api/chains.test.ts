@@ -48,6 +48,21 @@ describe("GET /api/chains", () => {
     signInAs(makeUser("nobody"));
     expect((await (await list(jsonRequest("GET", "/api/chains"), undefined)).json()).chains).toEqual([]);
   });
+
+  it("with a query answers one searched page with its total, and refuses a bad filter by name", async () => {
+    const w = world();
+    makeChain(w.teamId, w.engineer, "Channel B");
+    makeChain(w.teamId, w.engineer, "Spare");
+    signInAs(w.engineer);
+    const res = await list(jsonRequest("GET", "/api/chains?q=channel&sort=name&dir=asc&pageSize=1"), undefined);
+    expect(res.status).toBe(200);
+    const body = await res.json();
+    expect(body).toMatchObject({ total: 2, page: 1, pageSize: 1 });
+    expect(body.chains).toEqual([expect.objectContaining({ name: "Channel A", team: { id: w.teamId, name: "Keel" }, role: "owner", archived: false })]);
+    const bad = await list(jsonRequest("GET", "/api/chains?reviewState=lost"), undefined);
+    expect(bad.status).toBe(400);
+    expect((await bad.json()).errors.map((e: { path: string }) => e.path)).toEqual(["reviewState"]);
+  });
 });
 
 describe("POST /api/chains", () => {

@@ -3,27 +3,14 @@ import { recordAudit } from "@/db/queries/audit";
 import { insertChain, listChainsForUser } from "@/db/queries/chains";
 import { listUserTeams } from "@/db/queries/teams";
 import { checkDraftDocument, starterDraft } from "@/lib/api/chain-documents";
-import { chainView } from "@/lib/api/chain-view";
+import { chainListState, chainView } from "@/lib/api/chain-view";
 import { ApiError, ValidationError } from "@/lib/api/errors";
 import { apiRoute } from "@/lib/api/handler";
 import { parseBody, validate } from "@/lib/api/validate";
-import { LIBRARY_SORTS, searchLibrary } from "@/db/queries/library";
-import { REVIEW_STATES, WORST_STATUSES } from "@/db/schema";
+import { searchLibrary } from "@/db/queries/library";
+import { libraryApiQuery } from "@/lib/api/library-query";
 import { requireUser } from "@/lib/auth/guard";
-import { assertTeam, chainActionsFor, effectiveChainRole, teamRights } from "@/lib/auth/permissions";
-
-const listQuery = z.object({
-  q: z.string().max(200).optional(),
-  teamId: z.string().max(64).optional(),
-  ownerId: z.string().max(64).optional(),
-  reviewState: z.enum(REVIEW_STATES).optional(),
-  worstStatus: z.enum([...WORST_STATUSES, "none"]).optional(),
-  archived: z.enum(["0", "1"]).optional(),
-  sort: z.enum(LIBRARY_SORTS).optional(),
-  dir: z.enum(["asc", "desc"]).optional(),
-  page: z.coerce.number().int().min(1).max(10_000).optional(),
-  pageSize: z.coerce.number().int().min(1).max(100).optional(),
-});
+import { assertTeam, chainActionsFor, teamRights } from "@/lib/auth/permissions";
 
 /**
  * GET /api/chains: every chain the caller may see, newest change first. With any of `q`, `teamId`,
@@ -34,7 +21,7 @@ export const GET = apiRoute(async (request: Request) => {
   const user = await requireUser();
   const url = new URL(request.url);
   if ([...url.searchParams.keys()].length > 0) {
-    const parsed = validate(listQuery, Object.fromEntries(url.searchParams));
+    const parsed = validate(libraryApiQuery, Object.fromEntries(url.searchParams));
     if (!parsed.ok) throw new ValidationError(parsed.errors);
     const p = parsed.data;
     const page = searchLibrary(user.id, { ...p, archived: p.archived === "1" });
@@ -44,12 +31,7 @@ export const GET = apiRoute(async (request: Request) => {
         name: c.name,
         team: { id: c.teamId, name: c.teamName },
         owners: c.owners,
-        role: effectiveChainRole(c.teamRole, c.chainRole),
-        actions: [...chainActionsFor(c.teamRole, c.chainRole)],
-        reviewState: c.reviewState,
-        worstStatus: c.worstStatus,
-        version: c.version,
-        updatedAt: c.updatedAt.toISOString(),
+        ...chainListState(c),
         archived: c.archivedAt !== null,
       })),
       total: page.total,
@@ -61,12 +43,7 @@ export const GET = apiRoute(async (request: Request) => {
     id: c.id,
     name: c.name,
     team: { id: c.teamId, name: c.teamName },
-    role: effectiveChainRole(c.teamRole, c.chainRole),
-    actions: [...chainActionsFor(c.teamRole, c.chainRole)],
-    reviewState: c.reviewState,
-    worstStatus: c.worstStatus,
-    version: c.version,
-    updatedAt: c.updatedAt.toISOString(),
+    ...chainListState(c),
   }));
   return Response.json({ chains });
 });
