@@ -1,6 +1,7 @@
 import "server-only";
 import { and, desc, eq, isNull, or, sql } from "drizzle-orm";
-import { getDb } from "../connection";
+import type { SQLiteUpdateSetSource } from "drizzle-orm/sqlite-core";
+import { getDb, type Db } from "../connection";
 import {
   chainMembers,
   chains,
@@ -126,38 +127,48 @@ export interface SaveChainInput {
   summary?: string;
 }
 
-export type SaveChainOutcome =
-  | { ok: true; chain: ChainRow }
-  | { ok: false; reason: "conflict"; currentVersion: number }
-  | { ok: false; reason: "missing" };
+/** Why a save did not land: someone saved since the base version (with the current one), or the chain is gone. */
+export type StaleSave = { ok: false; reason: "conflict"; currentVersion: number } | { ok: false; reason: "missing" };
+
+export type SaveChainOutcome = { ok: true; chain: ChainRow } | StaleSave;
+
+type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
 /**
- * Save a new version of a chain if, and only if, nobody saved since `baseVersion`.
- * The version test sits in the UPDATE's WHERE clause, so two saves racing from the same
- * base cannot both succeed: the second changes no row and is told the current version.
+ * The version test every save shares: write `set` and bump the version only where the row still has
+ * `baseVersion`. The test sits in the UPDATE's WHERE clause, so of two saves racing from one base
+ * only the first changes a row; the second is told the current version (or that the chain is gone).
+ */
+export function updateAtVersion(tx: Tx, id: string, baseVersion: number, set: SQLiteUpdateSetSource<typeof chains>): { ok: true; chain: ChainRow } | StaleSave {
+  const updated = tx
+    .update(chains)
+    .set({ ...set, version: sql`${chains.version} + 1` })
+    .where(and(eq(chains.id, id), eq(chains.version, baseVersion)))
+    .returning()
+    .get();
+  if (updated) return { ok: true, chain: updated };
+  const current = tx.select({ version: chains.version }).from(chains).where(eq(chains.id, id)).get();
+  return current ? { ok: false, reason: "conflict", currentVersion: current.version } : { ok: false, reason: "missing" };
+}
+
+/**
+ * Save a new version of a chain if, and only if, nobody saved since `baseVersion` (see
+ * updateAtVersion), recording it as a revision of its own.
  */
 export function saveChainVersion(input: SaveChainInput): SaveChainOutcome {
   const db = getDb();
   const documentText = JSON.stringify(input.document);
   return db.transaction((tx) => {
-    const updated = tx
-      .update(chains)
-      .set({
-        name: input.name,
-        document: documentText,
-        version: sql`${chains.version} + 1`,
-        updatedAt: new Date(),
-        updatedBy: input.userId,
-        // a saved change invalidates the last analysis summary until it is recomputed
-        worstStatus: null,
-      })
-      .where(and(eq(chains.id, input.id), eq(chains.version, input.baseVersion)))
-      .returning()
-      .get();
-    if (!updated) {
-      const current = tx.select({ version: chains.version }).from(chains).where(eq(chains.id, input.id)).get();
-      return current ? { ok: false, reason: "conflict", currentVersion: current.version } : { ok: false, reason: "missing" };
-    }
+    const saved = updateAtVersion(tx, input.id, input.baseVersion, {
+      name: input.name,
+      document: documentText,
+      updatedAt: new Date(),
+      updatedBy: input.userId,
+      // a saved change invalidates the last analysis summary until it is recomputed
+      worstStatus: null,
+    });
+    if (!saved.ok) return saved;
+    const updated = saved.chain;
     tx.insert(revisions)
       .values({
         chainId: updated.id,

@@ -2,14 +2,10 @@ import "server-only";
 import { and, desc, eq, isNull, lt, sql } from "drizzle-orm";
 import { diffChains, shouldFold, summarizeDiff } from "@/lib/history";
 import { getDb } from "../connection";
+import { updateAtVersion, type SaveChainInput, type StaleSave } from "./chains";
 import { chains, reviews, revisions, users, type ChainRow, type ReviewState, type Revision, type WorstStatus } from "../schema";
 
-export interface HistorySaveInput {
-  id: string;
-  baseVersion: number;
-  name: string;
-  document: unknown;
-  userId: string;
+export interface HistorySaveInput extends SaveChainInput {
   /** a summary the saver wrote (explicit saves, restores); autosaves leave it out */
   summary?: string;
   worstStatus: WorstStatus | null;
@@ -18,8 +14,7 @@ export interface HistorySaveInput {
 
 export type HistorySaveOutcome =
   | { ok: true; chain: ChainRow; revision: Revision; folded: boolean; reviewStateBefore: ReviewState; backToDraft: boolean }
-  | { ok: false; reason: "conflict"; currentVersion: number }
-  | { ok: false; reason: "missing" };
+  | StaleSave;
 
 /**
  * Save a new version of a chain and keep its history, all in one transaction:
@@ -38,24 +33,16 @@ export function saveChainWithHistory(input: HistorySaveInput): HistorySaveOutcom
     const before = tx.select({ reviewState: chains.reviewState }).from(chains).where(eq(chains.id, input.id)).get();
     if (!before) return { ok: false, reason: "missing" };
     const backToDraft = before.reviewState === "approved";
-    const updated = tx
-      .update(chains)
-      .set({
-        name: input.name,
-        document: documentText,
-        version: sql`${chains.version} + 1`,
-        updatedAt: now,
-        updatedBy: input.userId,
-        worstStatus: input.worstStatus,
-        ...(backToDraft ? { reviewState: "draft" as const } : {}),
-      })
-      .where(and(eq(chains.id, input.id), eq(chains.version, input.baseVersion)))
-      .returning()
-      .get();
-    if (!updated) {
-      const current = tx.select({ version: chains.version }).from(chains).where(eq(chains.id, input.id)).get();
-      return current ? { ok: false, reason: "conflict", currentVersion: current.version } : { ok: false, reason: "missing" };
-    }
+    const saved = updateAtVersion(tx, input.id, input.baseVersion, {
+      name: input.name,
+      document: documentText,
+      updatedAt: now,
+      updatedBy: input.userId,
+      worstStatus: input.worstStatus,
+      ...(backToDraft ? { reviewState: "draft" as const } : {}),
+    });
+    if (!saved.ok) return saved;
+    const updated = saved.chain;
     const last = tx.select().from(revisions).where(eq(revisions.chainId, input.id)).orderBy(desc(revisions.number)).limit(1).get();
     const fold = shouldFold(last, { authorId: input.userId, summary: input.summary, at: now });
     let revision: Revision;
