@@ -39,6 +39,10 @@ export function buildAuthConfig(): NextAuthConfig {
   return {
     secret: e.authSecret,
     trustHost: true,
+    // Auth.js cookies are httpOnly; whether they are Secure it would otherwise read from the request's
+    // protocol, which behind a proxy is only what X-Forwarded-Proto claims. In production they are
+    // always Secure (browsers keep such cookies over HTTPS, and on http://localhost for a local trial).
+    useSecureCookies: e.nodeEnv === "production" ? true : undefined,
     adapter: DrizzleAdapter(db, {
       usersTable: users,
       accountsTable: accounts,

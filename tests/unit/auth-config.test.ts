@@ -2,6 +2,7 @@ import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import path from "node:path";
 import { findUserByEmail, savePendingSignup } from "@/db/queries/users";
 import { listUserTeams } from "@/db/queries/teams";
+import { Auth } from "@auth/core";
 import { buildAuthConfig, SignInMailLimited } from "@/lib/auth/config";
 import { hashPassword } from "@/lib/auth/password";
 import { resetEnvCache } from "@/lib/env";
@@ -98,5 +99,48 @@ describe("sign-in event", () => {
     savePendingSignup(user.email!, "Someone Else", await hashPassword("planted password"));
     await events.signIn!({ user: { id: user.id, email: user.email }, account: { provider: "credentials", type: "credentials", providerAccountId: user.id } } as never);
     expect(findUserByEmail(user.email!)?.name).toBe(user.name);
+  });
+});
+
+describe("session cookies", () => {
+  /** Sign in with a password through Auth.js itself and return the Set-Cookie lines of each step. */
+  async function passwordSignIn(baseUrl: string) {
+    const config = { ...buildAuthConfig(), basePath: "/api/auth" };
+    const user = makeUser("cookie", await hashPassword("a long enough password"));
+    const csrf = await Auth(new Request(`${baseUrl}/api/auth/csrf`), config);
+    const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+    const jar = csrf.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+    const signIn = await Auth(
+      new Request(`${baseUrl}/api/auth/callback/credentials`, {
+        method: "POST",
+        headers: { "content-type": "application/x-www-form-urlencoded", cookie: jar },
+        body: new URLSearchParams({ csrfToken, email: user.email!, password: "a long enough password" }),
+      }),
+      config,
+    );
+    return [...csrf.headers.getSetCookie(), ...signIn.headers.getSetCookie()];
+  }
+  const session = (cookies: string[]) => cookies.find((c) => /^(__Secure-)?authjs\.session-token=/.test(c));
+
+  it("are httpOnly and Secure in production even when the request arrives over plain HTTP", async () => {
+    Object.assign(process.env, { NODE_ENV: "production", AUTH_SECRET: "x".repeat(40) });
+    resetEnvCache();
+    const cookies = await passwordSignIn("http://localhost:3000");
+    const token = session(cookies);
+    expect(token).toMatch(/^__Secure-authjs\.session-token=/);
+    for (const c of cookies) {
+      expect(c).toMatch(/;\s*HttpOnly/i);
+      expect(c).toMatch(/;\s*Secure/i);
+    }
+  });
+
+  it("are httpOnly but not Secure on a development server over HTTP", async () => {
+    Object.assign(process.env, { NODE_ENV: "development" });
+    resetEnvCache();
+    const cookies = await passwordSignIn("http://localhost:3000");
+    const token = session(cookies);
+    expect(token).toMatch(/^authjs\.session-token=/);
+    expect(token).toMatch(/;\s*HttpOnly/i);
+    expect(token).not.toMatch(/;\s*Secure/i);
   });
 });
