@@ -56,14 +56,14 @@ describe("mail stand-in with the app's transport", () => {
   });
 
   it("serves the mailbox as JSON only while MAIL_STANDIN=1", async () => {
-    const on = await mailboxGet(new Request("http://localhost/api/mailbox?to=second@test.example"));
+    const on = await mailboxGet(new Request("http://localhost/api/mailbox?to=second@test.example"), undefined);
     expect(on.status).toBe(200);
     const body = (await on.json()) as { messages: { subject: string }[] };
     expect(body.messages.map((m) => m.subject)).toEqual(["Second"]);
 
     delete process.env.MAIL_STANDIN;
     resetEnvCache();
-    const off = await mailboxGet(new Request("http://localhost/api/mailbox"));
+    const off = await mailboxGet(new Request("http://localhost/api/mailbox"), undefined);
     expect(off.status).toBe(404);
     process.env.MAIL_STANDIN = "1";
     resetEnvCache();

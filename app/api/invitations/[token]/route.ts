@@ -1,14 +1,16 @@
 import { findInvitationByToken } from "@/db/queries/invitations";
 import { jsonError } from "@/lib/api/errors";
+import { apiRoute } from "@/lib/api/handler";
 
 type Context = { params: Promise<{ token: string }> };
 
 /**
  * GET /api/invitations/:token: what an invitation link is for (whoever holds the link may ask; it was
  * mailed to them). Only its state, target name, role and the address it is bound to; 404 for a token
- * that opens nothing.
+ * that opens nothing. No session is needed: the token itself is the credential, so there is no
+ * permission check beyond finding it.
  */
-export async function GET(_request: Request, { params }: Context): Promise<Response> {
+export const GET = apiRoute<Context>(async (_request, { params }) => {
   const { token } = await params;
   const view = findInvitationByToken(token);
   if (!view) return jsonError(404, "This invitation link is not valid.");
@@ -24,4 +26,4 @@ export async function GET(_request: Request, { params }: Context): Promise<Respo
       expiresAt: inv.expiresAt.toISOString(),
     },
   });
-}
+});
