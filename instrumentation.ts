@@ -1,11 +1,12 @@
 /**
  * Runs once when the server starts (not during `next build`): check the environment, so a
- * production start without AUTH_SECRET fails at once, then open the database and apply
- * any migrations it has not seen.
+ * production start without AUTH_SECRET stops at once with the reason, then open the database
+ * and apply any migrations it has not seen.
  */
 export async function register(): Promise<void> {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
-  const { env } = await import("./lib/env");
+  const { env, envAtStart } = await import("./lib/env");
+  envAtStart();
   const settings = env();
   const { getDb } = await import("./db/connection");
   getDb();

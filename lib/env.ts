@@ -115,6 +115,27 @@ export function env(): AppEnv {
   return cached;
 }
 
+/**
+ * The check at server start (instrumentation.ts). In production a bad environment ends the process
+ * with code 1 after naming every problem: left running, the server would answer each request with a
+ * 500 and look alive to whatever supervises it. Elsewhere the error is thrown as usual.
+ */
+export function envAtStart(
+  source: Record<string, string | undefined> = process.env,
+  exit: (code: number) => never = (code) => process.exit(code),
+  log: (message: string) => void = (message) => console.error(message),
+): AppEnv {
+  try {
+    return parseEnv(source);
+  } catch (err) {
+    if (err instanceof EnvError && source.NODE_ENV === "production") {
+      log(`[chainwright] ${err.message}\n[chainwright] Not starting: set these variables and start the server again.`);
+      return exit(1);
+    }
+    throw err;
+  }
+}
+
 /** Tests change process.env between cases; this forgets the parsed copy. */
 export function resetEnvCache(): void {
   cached = undefined;

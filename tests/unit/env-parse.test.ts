@@ -2,7 +2,7 @@ import { mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
-import { EnvError, parseEnv } from "@/lib/env";
+import { EnvError, envAtStart, parseEnv } from "@/lib/env";
 
 describe("parseEnv", () => {
   let dir: string;
@@ -63,5 +63,44 @@ describe("parseEnv", () => {
     expect(e.signinMailWindowMs).toBe(15 * 60_000);
     const noPath = parseEnv({ NODE_ENV: "test", AUTH_SECRET: "k".repeat(32) });
     expect(noPath.databasePath).toBe(path.resolve("data/chainwright.db"));
+  });
+});
+
+describe("envAtStart", () => {
+  class Exited extends Error {
+    constructor(readonly code: number) {
+      super(`exit ${code}`);
+    }
+  }
+  const exit = (code: number): never => {
+    throw new Exited(code);
+  };
+
+  it("in production ends the process with code 1, naming the missing secret", () => {
+    const lines: string[] = [];
+    const run = () => envAtStart({ NODE_ENV: "production", MAIL_STANDIN: "1" }, exit, (m) => lines.push(m));
+    expect(run).toThrow(Exited);
+    try {
+      run();
+    } catch (e) {
+      expect((e as Exited).code).toBe(1);
+    }
+    expect(lines[0]).toContain("AUTH_SECRET");
+  });
+
+  it("in development throws the EnvError instead of ending the process", () => {
+    const lines: string[] = [];
+    expect(() => envAtStart({ NODE_ENV: "development", SMTP_PORT: "not a port" }, exit, (m) => lines.push(m))).toThrow(EnvError);
+    expect(lines).toEqual([]);
+  });
+
+  it("returns the settings when the environment is good", () => {
+    const dir = mkdtempSync(path.join(tmpdir(), "chainwright-env-"));
+    try {
+      const e = envAtStart({ NODE_ENV: "production", AUTH_SECRET: "s".repeat(40), MAIL_STANDIN: "1", DATABASE_PATH: path.join(dir, "app.db") }, exit);
+      expect(e.authSecret).toBe("s".repeat(40));
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });
