@@ -69,6 +69,15 @@ function visibleTo(userId: string) {
  * The chains library: what the user may see (their teams' chains and chains shared with them),
  * searched, filtered, sorted and paged in SQL, so the table never loads more than one page.
  */
+
+/**
+ * Newest change first by default; any other column reads A→Z (or best→worst) until turned round.
+ * Here rather than in the page so the API and the library page agree when no direction is given.
+ */
+export function defaultLibraryDir(sort: LibrarySort | undefined): "asc" | "desc" {
+  return sort && sort !== "updatedAt" ? "asc" : "desc";
+}
+
 export function searchLibrary(userId: string, query: LibraryQuery): LibraryPage {
   const db = getDb();
   const join = visibleTo(userId);
@@ -85,7 +94,7 @@ export function searchLibrary(userId: string, query: LibraryQuery): LibraryPage 
   const where = and(...conditions);
   const pageSize = Math.min(Math.max(query.pageSize ?? 25, 1), 100);
   const page = Math.max(query.page ?? 1, 1);
-  const dir = query.dir === "asc" ? asc : desc;
+  const dir = (query.dir ?? defaultLibraryDir(query.sort)) === "asc" ? asc : desc;
   const sortKey = query.sort ?? "updatedAt";
   const order =
     sortKey === "name"

@@ -1,6 +1,6 @@
 import "server-only";
 import { z } from "zod";
-import { LIBRARY_SORTS, type LibraryQuery, type LibrarySort } from "@/db/queries/library";
+import { LIBRARY_SORTS, defaultLibraryDir, type LibraryQuery } from "@/db/queries/library";
 import { REVIEW_STATES, WORST_STATUSES } from "@/db/schema";
 
 /**
@@ -49,10 +49,7 @@ const addressQuery = z.object({
   page: lenient(FIELDS.page),
 });
 
-/** Newest change first by default; any other column reads A→Z (or best→worst) until turned round. */
-export function defaultLibraryDir(sort: LibrarySort | undefined): "asc" | "desc" {
-  return sort && sort !== "updatedAt" ? "asc" : "desc";
-}
+export { defaultLibraryDir };
 
 /**
  * The library page's query from its address. Anything unreadable in it is ignored, never an error

@@ -59,6 +59,9 @@ describe("GET /api/chains", () => {
     const body = await res.json();
     expect(body).toMatchObject({ total: 2, page: 1, pageSize: 1 });
     expect(body.chains).toEqual([expect.objectContaining({ name: "Channel A", team: { id: w.teamId, name: "Keel" }, role: "owner", archived: false })]);
+    // With no direction given the API orders names A to Z, as the library page does.
+    const byName = await (await list(jsonRequest("GET", "/api/chains?q=channel&sort=name"), undefined)).json();
+    expect(byName.chains.map((c: { name: string }) => c.name)).toEqual(["Channel A", "Channel B"]);
     const bad = await list(jsonRequest("GET", "/api/chains?reviewState=lost"), undefined);
     expect(bad.status).toBe(400);
     expect((await bad.json()).errors.map((e: { path: string }) => e.path)).toEqual(["reviewState"]);
