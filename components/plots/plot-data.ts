@@ -42,15 +42,16 @@ export interface PlotInput {
 }
 
 const RAD_TO_DEG = 180 / Math.PI;
-const dbCache = new WeakMap<Float64Array, { db: Float64Array; ph: Float64Array }>();
+const dbCache = new WeakMap<Float64Array, { im: Float64Array; db: Float64Array; ph: Float64Array }>();
 
 /**
  * Magnitude 20·log10|H| (dB) and phase atan2 (degrees, wrapped to (−180, 180]) of a complex response;
- * cached per array, so switching back and forth between modes costs nothing.
+ * cached per pair of arrays, so switching back and forth between modes costs nothing, and neither do
+ * the curves an edit left unchanged (the live analysis keeps their arrays).
  */
 export function dbPhase(re: Float64Array, im: Float64Array): { db: Float64Array; ph: Float64Array } {
   const hit = dbCache.get(re);
-  if (hit) return hit;
+  if (hit && hit.im === im) return hit;
   const db = new Float64Array(re.length);
   const ph = new Float64Array(re.length);
   for (let k = 0; k < re.length; k++) {
@@ -60,7 +61,7 @@ export function dbPhase(re: Float64Array, im: Float64Array): { db: Float64Array;
     if (p <= -180) p += 360;
     ph[k] = Number.isFinite(m) ? p : NaN;
   }
-  const out = { db, ph };
+  const out = { im, db, ph };
   dbCache.set(re, out);
   return out;
 }
@@ -107,8 +108,24 @@ export function plotMarkers(input: PlotInput): Marker[] {
   return out;
 }
 
-/** Plain arrays with gaps (null) where a value is not finite and where the wrapped phase jumps a turn. */
+const gapCache = new WeakMap<Float64Array, { plain?: (number | null)[]; wrapped?: (number | null)[] }>();
+
+/**
+ * Plain arrays with gaps (null) where a value is not finite and where the wrapped phase jumps a turn.
+ * Cached per array: the result is handed to Plotly and must not be changed.
+ */
 export function withGaps(values: Float64Array, wrap: boolean): (number | null)[] {
+  let entry = gapCache.get(values);
+  if (!entry) gapCache.set(values, (entry = {}));
+  const hit = wrap ? entry.wrapped : entry.plain;
+  if (hit) return hit;
+  const out = gapsOf(values, wrap);
+  if (wrap) entry.wrapped = out;
+  else entry.plain = out;
+  return out;
+}
+
+function gapsOf(values: Float64Array, wrap: boolean): (number | null)[] {
   const out: (number | null)[] = new Array(values.length);
   let prev: number | null = null;
   for (let k = 0; k < values.length; k++) {
@@ -135,6 +152,61 @@ export function hoverIndex(pointIndex: number, meta: unknown, points: number): n
   return meta === GROUPED ? pointIndex % (points + 1) : pointIndex;
 }
 
+const xCache = new WeakMap<Float64Array, number[]>();
+
+/** The grid as a plain array for Plotly, once per grid (the live analysis keeps the grid's array). */
+function plainX(f: Float64Array): number[] {
+  let x = xCache.get(f);
+  if (!x) xCache.set(f, (x = Array.from(f)));
+  return x;
+}
+
+let lastGroup: { f: Float64Array; members: Float64Array[]; gx: (number | null)[]; gm: (number | null)[]; gp: (number | null)[] } | null = null;
+
+/**
+ * The muted curves one after another, each followed by a gap: x, magnitude and phase. The last result is
+ * kept, so an edit that leaves these curves alone (the stage the plot follows, typically) gives the very
+ * same arrays and the plot does not redraw them.
+ */
+function grouped(others: PlotSeries[], f: Float64Array) {
+  const members = others.flatMap((s) => [s.db, s.ph]);
+  if (lastGroup && lastGroup.f === f && lastGroup.members.length === members.length && lastGroup.members.every((m, i) => m === members[i])) return lastGroup;
+  const x = plainX(f);
+  const n = x.length + 1;
+  const gx: (number | null)[] = new Array(others.length * n);
+  const gm: (number | null)[] = new Array(others.length * n);
+  const gp: (number | null)[] = new Array(others.length * n);
+  others.forEach((s, j) => {
+    const m = withGaps(s.db, false);
+    const p = withGaps(s.ph, true);
+    for (let k = 0; k < x.length; k++) {
+      gx[j * n + k] = x[k];
+      gm[j * n + k] = m[k];
+      gp[j * n + k] = p[k];
+    }
+    gx[j * n + x.length] = gm[j * n + x.length] = gp[j * n + x.length] = null;
+  });
+  lastGroup = { f, members, gx, gm, gp };
+  return lastGroup;
+}
+
+const extremeCache = new WeakMap<Float64Array, { top: number; bottom: number }>();
+
+/** Largest and smallest finite value of an array (−Infinity and Infinity when there is none). */
+function extremes(values: Float64Array): { top: number; bottom: number } {
+  let e = extremeCache.get(values);
+  if (!e) {
+    e = { top: -Infinity, bottom: Infinity };
+    for (const v of values) {
+      if (!Number.isFinite(v)) continue;
+      if (v > e.top) e.top = v;
+      if (v < e.bottom) e.bottom = v;
+    }
+    extremeCache.set(values, e);
+  }
+  return e;
+}
+
 export interface Figure {
   data: Record<string, unknown>[];
   layout: Record<string, unknown>;
@@ -146,19 +218,12 @@ export interface Figure {
  * redraw does not grow with the number of stages. The cursor readout names each curve.
  */
 export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64Array): Figure {
-  const x = Array.from(f);
+  const x = plainX(f);
   const data: Record<string, unknown>[] = [];
   const others = series.filter((s) => !s.emphasis);
   const chosen = series.filter((s) => s.emphasis);
   if (others.length) {
-    const gx: (number | null)[] = [];
-    const gm: (number | null)[] = [];
-    const gp: (number | null)[] = [];
-    for (const s of others) {
-      gx.push(...x, null);
-      gm.push(...withGaps(s.db, false), null);
-      gp.push(...withGaps(s.ph, true), null);
-    }
+    const { gx, gm, gp } = grouped(others, f);
     const line = { color: OTHERS_COLOUR, width: 1 };
     const name = others.length === 1 ? others[0].name : `${others.length} other stages`;
     data.push({ type: "scatter", mode: "lines", name, legendgroup: "others", x: gx, y: gm, xaxis: "x", yaxis: "y", line, hoverinfo: "none", meta: GROUPED });
@@ -190,11 +255,9 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
   let top = -Infinity;
   let bottom = Infinity;
   for (const s of series) {
-    for (const v of s.db) {
-      if (!Number.isFinite(v)) continue;
-      if (v > top) top = v;
-      if (v < bottom) bottom = v;
-    }
+    const e = extremes(s.db);
+    if (e.top > top) top = e.top;
+    if (e.bottom < bottom) bottom = e.bottom;
   }
   // Steps of 10 dB, so most edits leave the range alone and the plot can update its curves only.
   const yTop = Number.isFinite(top) ? Math.ceil((top + 2) / 10) * 10 : undefined;

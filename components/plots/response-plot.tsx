@@ -12,6 +12,7 @@ import { buildFigure, figureShape, hoverIndex, plotCsv, plotLegend, plotMarkers,
 import { loadPlotly, type PlotlyLike } from "./plotly-loader";
 
 function sameValues(a: (number | null)[], b: (number | null)[] | undefined): boolean {
+  if (a === b) return true; // unchanged curves keep their arrays (keepCurves, withGaps)
   if (!b || a.length !== b.length) return false;
   for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
   return true;

@@ -22,7 +22,7 @@ import { TIGHT_SHARE, TWO_PI } from "./constants";
 import { compileChain, type CompiledChain, type SweepResult } from "./compile-chain";
 import { operatingPoint, type DcPoint, type DcTerm } from "./dc";
 import { db, si } from "./format";
-import { bandGrid, bandMax, logGrid } from "./grids";
+import { bandGrid, bandMax, bandMaxMany, logGrid } from "./grids";
 import { idealCharacteristics } from "./ideal";
 import { pathNoise, pathNoiseDensity } from "./noise";
 import { ratioAt } from "./poly";
@@ -122,16 +122,25 @@ interface NodeFigures {
   plusGain: number | null; // max |H_src→(+)| over the band
 }
 
-/** Band maxima of every node's response (and op-amp (+) pins) over the source band. */
+/**
+ * Band maxima of every node's response (and op-amp (+) pins) over the source band: dense samples, then
+ * every node's golden-section refinements side by side (bandMaxMany), one sweep of the chain per step
+ * for all of them instead of one per point.
+ */
 function bandFigures(cc: CompiledChain, fLow: number, fHigh: number): NodeFigures[] {
   const grid = bandGrid(fLow, fHigh);
   const sw = cc.sweep(grid);
-  const one = cc.sweep(Float64Array.of(fLow > 0 ? fLow : fHigh));
-  const at = (f: number): SweepResult => cc.sweep(Float64Array.of(f), one);
   const mag = (r: SweepResult, i: number, k: number) => Math.hypot(r.cumRe[i][k], r.cumIm[i][k]);
   const finite = (x: number) => (Number.isFinite(x) ? x : null);
+  /** |V+/Vin| of op-amp stage i at f (Hz) */
+  const plusRatio = (i: number, f: number) => {
+    const model = cc.models[i]!;
+    const [pr, pi] = ratioAt(model.vin.p, model.den, TWO_PI * f);
+    return Math.hypot(pr, pi);
+  };
   const n = cc.nodeIds.length;
-  const out: NodeFigures[] = [];
+  // what each search maximises: 0 |H| of node i, 1 2πf·|H| of node i, 2 |H| at the (+) pin of stage i
+  const searches: { grid: Float64Array; values: Float64Array; what: 0 | 1 | 2; node: number }[] = [];
   for (let i = 0; i < n; i++) {
     const g = new Float64Array(grid.length);
     const sl = new Float64Array(grid.length);
@@ -139,25 +148,36 @@ function bandFigures(cc: CompiledChain, fLow: number, fHigh: number): NodeFigure
       g[k] = mag(sw, i, k);
       sl[k] = grid[k] === 0 ? 0 : TWO_PI * grid[k] * g[k];
     }
-    const gain = bandMax(grid, g, (f) => mag(at(f), i, 0)).value;
-    const slope = bandMax(grid, sl, (f) => TWO_PI * f * mag(at(f), i, 0)).value;
-    let plusGain: number | null = null;
-    const model = cc.models[i];
-    if (model) {
+    searches.push({ grid, values: g, what: 0, node: i }, { grid, values: sl, what: 1, node: i });
+    if (cc.models[i]) {
       const p = cc.topology.parent[i];
-      const plusMag = (r: SweepResult, k: number, f: number) => {
-        const [pr, pi] = ratioAt(model.vin.p, model.den, TWO_PI * f);
-        return mag(r, p, k) * Math.hypot(pr, pi);
-      };
       const pv = new Float64Array(grid.length);
-      for (let k = 0; k < grid.length; k++) pv[k] = plusMag(sw, k, grid[k]);
-      plusGain = finite(bandMax(grid, pv, (f) => plusMag(at(f), 0, f)).value);
+      for (let k = 0; k < grid.length; k++) pv[k] = mag(sw, p, k) * plusRatio(i, grid[k]);
+      searches.push({ grid, values: pv, what: 2, node: i });
     }
-    out.push({ gain: finite(gain), slope: finite(slope), plusGain });
   }
+  let step: SweepResult | undefined;
+  const peaks = bandMaxMany(searches, (freqs, which, out, count) => {
+    // the whole buffer is swept (its length stays fixed, so the sweep's arrays are reused); slots past
+    // `count` hold earlier frequencies and are not read
+    step = cc.sweep(freqs, step);
+    for (let c = 0; c < count; c++) {
+      const s = searches[which[c]];
+      const f = freqs[c];
+      if (s.what === 0) out[c] = mag(step, s.node, c);
+      else if (s.what === 1) out[c] = TWO_PI * f * mag(step, s.node, c);
+      else out[c] = mag(step, cc.topology.parent[s.node], c) * plusRatio(s.node, f);
+    }
+  });
+  const out: NodeFigures[] = Array.from({ length: n }, () => ({ gain: null, slope: null, plusGain: null }));
+  searches.forEach((s, j) => {
+    const v = finite(peaks[j].value);
+    if (s.what === 0) out[s.node].gain = v;
+    else if (s.what === 1) out[s.node].slope = v;
+    else out[s.node].plusGain = v;
+  });
   return out;
 }
-
 
 /** Runs the full analysis of a complete chain (defaults applied). */
 export function analyzeChain(chain: Chain, opts: AnalyzeOptions = {}): AnalysisResult {

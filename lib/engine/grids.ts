@@ -45,47 +45,160 @@ export interface BandPeak {
 }
 
 /**
- * Maximum of a function over a band, from samples on `grid` (values given) refined by golden-section
- * search in ln f between the neighbours of the best sample. The band limits are grid points, so an
- * edge maximum is exact. A non-finite sample is returned as is (the caller reports it).
+ * Golden-section search for the maximum over a band, as a state machine: `next()` gives the frequency
+ * (Hz) to evaluate, or null when done, and `feed(value)` hands its value back. Samples on `grid` (values
+ * given) pick the best sample; the search then runs in ln f between its neighbours until the bracket
+ * is under 1e-13 (relative, 80 steps at most). The band limits are grid points, so an edge maximum is
+ * exact. A non-finite sample is returned as is (the caller reports it). Written as a stepper so that
+ * many searches can share one evaluation per step (`bandMaxMany`) and give the same numbers as one
+ * search alone (`bandMax`).
  */
-export function bandMax(grid: Float64Array, values: ArrayLike<number>, fn: (f: number) => number): BandPeak {
-  let best = 0;
-  for (let i = 0; i < grid.length; i++) {
-    const v = values[i];
-    if (!Number.isFinite(v)) return { value: v, f: grid[i] };
-    if (v > values[best]) best = i;
+class GoldenSearch {
+  peak: BandPeak;
+  private state = 0; // 0 wants f1, 1 wants f2, 2 between steps, 4 wants the new point's value, 3 done
+  private a = 0;
+  private b = 0;
+  private x1 = 0;
+  private x2 = 0;
+  private f1 = 0;
+  private f2 = 0;
+  private it = 0;
+  /** which of x1 (true) or x2 the pending value is for, while iterating */
+  private wantX1 = false;
+  private static readonly G = (Math.sqrt(5) - 1) / 2;
+
+  constructor(grid: Float64Array, values: ArrayLike<number>) {
+    let best = 0;
+    for (let i = 0; i < grid.length; i++) {
+      const v = values[i];
+      if (!Number.isFinite(v)) {
+        this.peak = { value: v, f: grid[i] };
+        this.state = 3;
+        return;
+      }
+      if (v > values[best]) best = i;
+    }
+    this.peak = { value: values[best], f: grid[best] };
+    if (grid.length < 3) {
+      this.state = 3;
+      return;
+    }
+    const lo = grid[Math.max(0, best - 1)];
+    const hi = grid[Math.min(grid.length - 1, best + 1)];
+    if (!(lo > 0)) {
+      // next to f = 0: the log search cannot start there; samples are dense enough
+      this.state = 3;
+      return;
+    }
+    const g = GoldenSearch.G;
+    this.a = Math.log(lo);
+    this.b = Math.log(hi);
+    this.x1 = this.b - g * (this.b - this.a);
+    this.x2 = this.a + g * (this.b - this.a);
   }
-  let peak: BandPeak = { value: values[best], f: grid[best] };
-  if (grid.length < 3) return peak;
-  const lo = grid[Math.max(0, best - 1)];
-  const hi = grid[Math.min(grid.length - 1, best + 1)];
-  if (!(lo > 0)) return peak; // next to f = 0: the log search cannot start there; samples are dense enough
-  const g = (Math.sqrt(5) - 1) / 2;
-  let a = Math.log(lo);
-  let b = Math.log(hi);
-  let x1 = b - g * (b - a);
-  let x2 = a + g * (b - a);
-  let f1 = fn(Math.exp(x1));
-  let f2 = fn(Math.exp(x2));
-  for (let it = 0; it < 80 && b - a > 1e-13 * Math.max(1, Math.abs(a)); it++) {
-    if (f1 >= f2) {
-      b = x2;
-      x2 = x1;
-      f2 = f1;
-      x1 = b - g * (b - a);
-      f1 = fn(Math.exp(x1));
-    } else {
-      a = x1;
-      x1 = x2;
-      f1 = f2;
-      x2 = a + g * (b - a);
-      f2 = fn(Math.exp(x2));
+
+  /** The next frequency to evaluate (Hz), or null when the search is over. Call `feed` before asking again. */
+  next(): number | null {
+    switch (this.state) {
+      case 0:
+        return Math.exp(this.x1);
+      case 1:
+        return Math.exp(this.x2);
+      case 2:
+        if (!(this.it < 80 && this.b - this.a > 1e-13 * Math.max(1, Math.abs(this.a)))) {
+          this.finish();
+          return null;
+        }
+        this.narrow();
+        this.state = 4;
+        return Math.exp(this.wantX1 ? this.x1 : this.x2);
+      case 4:
+        return Math.exp(this.wantX1 ? this.x1 : this.x2);
+      default:
+        return null;
     }
   }
-  if (f1 > peak.value) peak = { value: f1, f: Math.exp(x1) };
-  if (f2 > peak.value) peak = { value: f2, f: Math.exp(x2) };
-  return peak;
+
+  /** The value at the frequency `next()` gave. */
+  feed(v: number): void {
+    if (this.state === 0) {
+      this.f1 = v;
+      this.state = 1;
+    } else if (this.state === 1) {
+      this.f2 = v;
+      this.state = 2;
+    } else if (this.state === 4) {
+      if (this.wantX1) this.f1 = v;
+      else this.f2 = v;
+      this.it++;
+      this.state = 2;
+    }
+  }
+
+  /** Keeps the better of the two inner points inside the bracket and places the new one. */
+  private narrow(): void {
+    const g = GoldenSearch.G;
+    if (this.f1 >= this.f2) {
+      this.b = this.x2;
+      this.x2 = this.x1;
+      this.f2 = this.f1;
+      this.x1 = this.b - g * (this.b - this.a);
+      this.wantX1 = true;
+    } else {
+      this.a = this.x1;
+      this.x1 = this.x2;
+      this.f1 = this.f2;
+      this.x2 = this.a + g * (this.b - this.a);
+      this.wantX1 = false;
+    }
+  }
+
+  private finish(): void {
+    this.state = 3;
+    if (this.f1 > this.peak.value) this.peak = { value: this.f1, f: Math.exp(this.x1) };
+    if (this.f2 > this.peak.value) this.peak = { value: this.f2, f: Math.exp(this.x2) };
+  }
+}
+
+/**
+ * Maximum of a function over a band, from samples on `grid` (values given) refined by golden-section
+ * search in ln f between the neighbours of the best sample (GoldenSearch). The band limits are grid
+ * points, so an edge maximum is exact. A non-finite sample is returned as is (the caller reports it).
+ */
+export function bandMax(grid: Float64Array, values: ArrayLike<number>, fn: (f: number) => number): BandPeak {
+  const s = new GoldenSearch(grid, values);
+  for (let f = s.next(); f !== null; f = s.next()) s.feed(fn(f));
+  return s.peak;
+}
+
+/**
+ * Several `bandMax` searches run side by side: each step asks `evaluate` once for every search still
+ * running, with `freqs[j]` the frequency search `which[j]` needs and `out[j]` its value to fill in. The
+ * results are those of running each search alone with the same function (the steps do not interact),
+ * at the cost of one batched evaluation per step instead of one per point.
+ */
+export function bandMaxMany(
+  searches: { grid: Float64Array; values: ArrayLike<number> }[],
+  evaluate: (freqs: Float64Array, which: Int32Array, out: Float64Array, count: number) => void,
+): BandPeak[] {
+  const list = searches.map((s) => new GoldenSearch(s.grid, s.values));
+  const freqs = new Float64Array(list.length);
+  const which = new Int32Array(list.length);
+  const out = new Float64Array(list.length);
+  for (;;) {
+    let count = 0;
+    for (let j = 0; j < list.length; j++) {
+      const f = list[j].next();
+      if (f === null) continue;
+      freqs[count] = f;
+      which[count] = j;
+      count++;
+    }
+    if (!count) break;
+    evaluate(freqs, which, out, count);
+    for (let c = 0; c < count; c++) list[which[c]].feed(out[c]);
+  }
+  return list.map((s) => s.peak);
 }
 
 // Gauss–Kronrod 7/15 nodes and weights on [−1, 1] (Kronrod extension of the 7-point Gauss rule).

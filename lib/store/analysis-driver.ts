@@ -17,26 +17,16 @@ export interface TierRunner {
   dispose(): void;
 }
 
-/** Run `fn` as a task of its own, so the keystroke that asked for it is handled (and painted) first. */
-function nextTask(fn: () => void): void {
-  if (typeof MessageChannel === "undefined") {
-    setTimeout(fn, 0);
-    return;
-  }
-  const ch = new MessageChannel();
-  ch.port1.onmessage = () => {
-    ch.port1.close();
-    fn();
-  };
-  ch.port2.postMessage(null);
-}
-
-/** Runs requests in this thread, as a task of their own (tests, small chains, browsers without module workers). */
+/**
+ * Runs requests in this thread, right after the code that asked (a microtask): the edit and its figures
+ * then reach the screen in the same frame, with no task or frame in between. Used while the quick tier
+ * takes a few milliseconds (adaptiveRunner), in tests, and in browsers without module workers.
+ */
 export function inlineRunner(): TierRunner {
   return {
     run: (req) =>
       new Promise((resolve) =>
-        nextTask(() => resolve(req.tier === "quick" ? { tier: "quick", seq: req.seq, quick: quickTier(req.doc) } : { tier: "full", seq: req.seq, full: fullTier(req.doc) })),
+        queueMicrotask(() => resolve(req.tier === "quick" ? { tier: "quick", seq: req.seq, quick: quickTier(req.doc) } : { tier: "full", seq: req.seq, full: fullTier(req.doc) })),
       ),
     dispose() {},
   };
@@ -45,18 +35,23 @@ export function inlineRunner(): TierRunner {
 /**
  * The quick tier where it is fastest overall: in this thread while it stays within `budgetMs` (a handful of
  * milliseconds per edit: no worker round trip, and typing is not held up noticeably), in the worker once a
- * chain makes it slower than that. The choice follows the last measured run, so a growing chain moves to
- * the worker and a shrinking one comes back.
+ * chain makes it slower than that. The choice follows the median of the last three measured runs, so a
+ * growing chain moves to the worker and a shrinking one comes back, while one slow run (a garbage
+ * collection in the middle of it) does not send the next edit on a round trip.
  */
 export function adaptiveRunner(inline: TierRunner, worker: TierRunner, budgetMs = 8): TierRunner & { where(): "inline" | "worker" } {
-  let lastMs = 0;
+  const recent: number[] = [];
   let where: "inline" | "worker" = "inline";
   return {
     where: () => where,
     run: async (req) => {
-      where = lastMs <= budgetMs ? "inline" : "worker";
+      const sorted = [...recent].sort((a, b) => a - b);
+      where = !sorted.length || sorted[(sorted.length - 1) >> 1] <= budgetMs ? "inline" : "worker";
       const res = await (where === "inline" ? inline : worker).run(req);
-      if (res.tier === "quick") lastMs = res.quick.ms;
+      if (res.tier === "quick") {
+        recent.push(res.quick.ms);
+        if (recent.length > 3) recent.shift();
+      }
       return res;
     },
     dispose() {

@@ -14,7 +14,8 @@ scope.onmessage = (e: MessageEvent<AnalysisRequest>) => {
     const out = quickTier(doc);
     const c = out.curves;
     // Hand the curve arrays over instead of copying them (each sweep array owns its buffer or shares one).
-    const transfer = c ? [c.f, ...c.cumRe, ...c.cumIm, ...c.indRe, ...c.indIm].map((a) => a.buffer as ArrayBuffer) : [];
+    // Not the grid: the next run reuses it (live-analysis keeps it while the settings stay), so it is copied.
+    const transfer = c ? [...c.cumRe, ...c.cumIm, ...c.indRe, ...c.indIm].map((a) => a.buffer as ArrayBuffer) : [];
     const msg: AnalysisResponse = { tier, seq, quick: out };
     scope.postMessage(msg, [...new Set(transfer)]);
   } else {

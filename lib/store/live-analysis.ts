@@ -87,11 +87,22 @@ export function logGrid(a: number, b: number, n: number): Float64Array {
   return out;
 }
 
+let lastGrid: { a: number; b: number; n: number; f: Float64Array } | null = null;
+
+/**
+ * The plot grid, the same array while fMin, fMax and points stay as they were (an edit rarely changes
+ * them): the plot then keeps its x values, and curves can be compared with the previous ones.
+ */
+function plotGrid(a: number, b: number, n: number): Float64Array {
+  if (!lastGrid || lastGrid.a !== a || lastGrid.b !== b || lastGrid.n !== n) lastGrid = { a, b, n, f: logGrid(a, b, n) };
+  return lastGrid.f;
+}
+
 /** The plot curves of every node of a complete chain, through the engine's fast path. */
 export function computeCurves(chain: Chain): LiveCurves {
   const cc = compileChain(chain);
   const { fMin, fMax, points } = chain.analysis;
-  const f = logGrid(fMin, fMax, points);
+  const f = plotGrid(fMin, fMax, points);
   const sw = cc.sweep(f);
   const index: Record<string, number> = {};
   cc.nodeIds.forEach((id, i) => (index[id] = i));
@@ -140,6 +151,36 @@ function keep<T>(prev: T | undefined, next: T): T {
   return prev !== undefined && JSON.stringify(prev) === JSON.stringify(next) ? prev : next;
 }
 
+const CURVE_KEYS = ["cumRe", "cumIm", "indRe", "indIm"] as const;
+
+function sameArray(a: Float64Array, b: Float64Array | undefined): boolean {
+  if (!b || a.length !== b.length) return false;
+  for (let k = 0; k < a.length; k++) if (a[k] !== b[k] && !(Number.isNaN(a[k]) && Number.isNaN(b[k]))) return false;
+  return true;
+}
+
+/**
+ * `next` with every array that holds the same values as its counterpart in `prev` (same grid, same node)
+ * replaced by that counterpart, and `prev` itself when nothing changed. Editing one stage changes the
+ * curves from it on, not those before it: the plot then recomputes and redraws only what moved.
+ */
+export function keepCurves(prev: LiveCurves | null | undefined, next: LiveCurves | null): LiveCurves | null {
+  if (!prev || !next || !sameArray(next.f, prev.f)) return next;
+  const out: LiveCurves = { f: prev.f, index: next.index, cumRe: [], cumIm: [], indRe: [], indIm: [] };
+  let changed = Object.keys(prev.index).length !== Object.keys(next.index).length;
+  for (const [id, i] of Object.entries(next.index)) {
+    const j = prev.index[id];
+    if (j !== i) changed = true;
+    for (const key of CURVE_KEYS) {
+      const old = j === undefined ? undefined : prev[key][j];
+      const same = old !== undefined && sameArray(next[key][i], old);
+      out[key][i] = same ? old : next[key][i];
+      if (!same) changed = true;
+    }
+  }
+  return changed ? out : prev;
+}
+
 /** The previous map when it holds the very same objects under the same keys. */
 function keepMap<T>(prev: Record<string, T> | undefined, next: Record<string, T>): Record<string, T> {
   if (!prev) return next;
@@ -168,7 +209,7 @@ export function assembleLive(
     issues: quick.issues,
     result: quick.result,
     full: fullResult,
-    curves: quick.curves,
+    curves: keepCurves(prev?.curves, quick.curves),
     stageById: {},
     adcById: {},
     warningsByNode: {},

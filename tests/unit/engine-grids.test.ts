@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { bandGrid, bandMax, integrateLog, logGrid } from "@/lib/engine/grids";
+import { bandGrid, bandMax, bandMaxMany, integrateLog, logGrid } from "@/lib/engine/grids";
 
 describe("logGrid", () => {
   it("has exact ends and a constant ratio", () => {
@@ -55,6 +55,49 @@ describe("bandMax", () => {
     const g = bandGrid(0, 10);
     const v = Array.from(g, (f) => 1 / f);
     expect(bandMax(g, v, (f) => 1 / f).value).toBe(Infinity);
+  });
+});
+
+describe("bandMaxMany", () => {
+  // second-order resonances of different Q and centre (same closed form as the bandMax case above)
+  const resonance = (Q: number, f0: number) => (f: number) => {
+    const x = f / f0;
+    return 1 / Math.hypot(1 - x * x, x / Q);
+  };
+  const fns = [resonance(3, 1234.5), resonance(0.9, 40), resonance(12, 7.7e4), (f: number) => 1 / (1 + f)];
+  it("gives bit for bit what each search gives alone, while asking once per step", () => {
+    const g = bandGrid(10, 1e5);
+    const searches = fns.map((fn) => ({ grid: g, values: Array.from(g, fn) }));
+    let calls = 0;
+    let points = 0;
+    const together = bandMaxMany(searches, (freqs, which, out, count) => {
+      calls++;
+      points += count;
+      for (let c = 0; c < count; c++) out[c] = fns[which[c]](freqs[c]);
+    });
+    let alone = 0;
+    fns.forEach((fn, j) => {
+      const single = bandMax(g, searches[j].values, (f) => (alone++, fn(f)));
+      expect(together[j]).toEqual(single);
+    });
+    expect(points).toBe(alone); // the same evaluations, only grouped
+    expect(calls).toBeLessThan(points); // and grouped: fewer batches than points
+  });
+  it("stops a search with a non-finite sample at once and lets the others run", () => {
+    const g = bandGrid(0, 10);
+    const bad = { grid: g, values: Array.from(g, (f) => 1 / f) };
+    const good = { grid: g, values: Array.from(g, (f) => 1 / (1 + (f - 3) ** 2)) };
+    const seen = new Set<number>();
+    const [a, b] = bandMaxMany([bad, good], (freqs, which, out, count) => {
+      for (let c = 0; c < count; c++) {
+        seen.add(which[c]);
+        out[c] = 1 / (1 + (freqs[c] - 3) ** 2);
+      }
+    });
+    expect(a.value).toBe(Infinity);
+    expect([...seen]).toEqual([1]);
+    expect(b.value).toBeCloseTo(1, 12);
+    expect(b.f).toBeCloseTo(3, 5);
   });
 });
 

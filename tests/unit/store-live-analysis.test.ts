@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { analyseDraft, assembleLive, fullTier, quickTier } from "@/lib/store/live-analysis";
+import { analyseDraft, assembleLive, computeCurves, fullTier, keepCurves, quickTier } from "@/lib/store/live-analysis";
 import { dbPhase } from "@/components/plots/plot-data";
 import { findTemplate, TEMPLATES } from "@/lib/templates";
 import { analyzeChain } from "@/lib/engine";
@@ -96,3 +96,42 @@ describe("assembleLive", () => {
     expect(live.warningsByNode.u2.some((w) => w.code === "rail-clip")).toBe(true);
   });
 });
+
+describe("keepCurves", () => {
+  it("keeps the arrays of curves an edit left alone and takes the new ones for the rest", () => {
+    const doc = bridge();
+    const chain = validateChain(doc);
+    if (!chain.ok) throw new Error("template does not validate");
+    const before = computeCurves(chain.chain);
+    // the last gain stage changes: everything before it keeps its response
+    const ids = Object.keys(before.index);
+    const last = doc.nodes.filter((n) => n.kind !== "source" && n.kind !== "adc").at(-1)!;
+    const editedDoc = { ...doc, nodes: doc.nodes.map((n) => (n.id === last.id ? { ...n, params: { ...n.params, ...bump(n.params) } } : n)) };
+    const edited = validateChain(editedDoc);
+    if (!edited.ok) throw new Error("edited template does not validate");
+    const after = computeCurves(edited.chain);
+    const kept = keepCurves(before, after)!;
+    expect(kept).not.toBe(before);
+    const li = before.index[last.id];
+    expect(kept.indRe[li]).toBe(after.indRe[li]);
+    expect(kept.indRe[li]).not.toBe(before.indRe[li]);
+    const upstream = ids.filter((id) => id !== last.id && before.index[id] < li);
+    expect(upstream.length).toBeGreaterThan(0);
+    for (const id of upstream) {
+      const i = before.index[id];
+      expect(kept.cumRe[i]).toBe(before.cumRe[i]);
+      expect(kept.indIm[i]).toBe(before.indIm[i]);
+    }
+    // values are those of the new sweep everywhere
+    for (const id of ids) expect(Array.from(kept.cumRe[kept.index[id]])).toEqual(Array.from(after.cumRe[after.index[id]]));
+    // nothing changed at all: the previous object itself
+    expect(keepCurves(before, computeCurves(chain.chain))).toBe(before);
+  });
+});
+
+/** A parameter change that keeps the stage valid: resistor values scaled by 1.5. */
+function bump(params: Record<string, unknown>): Record<string, unknown> {
+  const out: Record<string, unknown> = {};
+  for (const [k, v] of Object.entries(params)) if (/^r/.test(k) && typeof v === "number") out[k] = v * 1.5;
+  return out;
+}
