@@ -297,14 +297,19 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
 }
 
 /**
- * Everything about a figure except its curve values: when two figures share it, the second can be drawn
- * by replacing the curves alone (Plotly.animate without a redraw) instead of a full Plotly.react.
+ * Everything about a figure except its curve values and its markers: when two figures share it, the
+ * second can be drawn by replacing the curves (and, if they moved, the markers) instead of starting over.
  */
 export function figureShape(fig: Figure): string {
   return JSON.stringify({
     traces: fig.data.map((t) => [t.name, t.yaxis, t.meta, t.line, (t.x as unknown[]).length]),
-    layout: fig.layout,
+    layout: { ...fig.layout, shapes: undefined, annotations: undefined }, // undefined: left out of the text
   });
+}
+
+/** The markers of a figure (corner, band, Nyquist and alias lines with their labels), as one string. */
+export function figureMarks(fig: Figure): string {
+  return JSON.stringify([fig.layout.shapes, fig.layout.annotations]);
 }
 
 /** What the plot's legend shows: the chosen curve in the accent and the other stages in the muted tone. */

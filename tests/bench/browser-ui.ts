@@ -13,7 +13,9 @@
  * 200 ms, the full analysis with noise keeps being postponed) and pauses (1.2 s apart, so the full
  * analysis lands between edits and competes for the main thread).
  *
- * Options: --edits N (per pace, default 60), --reuse (use an existing build: E2E_REUSE_BUILD=1).
+ * Options: --edits N (per pace, default 60), --reuse (use an existing build: E2E_REUSE_BUILD=1),
+ * --profile (record the page's main thread with the DevTools profiler during the typing pace: the
+ * profile goes to artifacts/bench-ui.cpuprofile and the heaviest functions are printed).
  * Builds with the browser-test harness into E2E_DIST_DIR (default .next-e2e).
  */
 import { mkdirSync, writeFileSync } from "node:fs";
@@ -32,6 +34,7 @@ const arg = (name: string, fallback: number) => {
 };
 const EDITS = arg("edits", 60);
 const WARMUP = 10;
+const PROFILE = process.argv.includes("--profile");
 if (process.argv.includes("--reuse")) process.env.E2E_REUSE_BUILD = "1";
 const ARTIFACTS = fileURLToPath(new URL("../../artifacts", import.meta.url));
 
@@ -47,6 +50,10 @@ interface Sample {
   live: number;
   /** building the figure and Plotly's redraw */
   plotDraw: number;
+  /** edit → the draft updated and the analysis asked (the input handler and the store) */
+  asked: number;
+  /** analysis back → the plot's layout effect starts (React rendering the new figures) */
+  render: number;
 }
 
 function stats(xs: number[]) {
@@ -81,7 +88,8 @@ const EDIT_IN_PAGE = `async (text) => {
       const steps = liveMark?.detail?.steps ?? null;
       const live = liveMark?.startTime;
       const plotStart = find("cw:plot-start:" + rev);
-      return { plot: plot - t0, spans: spans - t0, both: Math.max(plot, spans) - t0, quickMs, where, steps, live: live - t0, plotDraw: plot - plotStart };
+      const asked = find("cw:edit:" + rev);
+      return { plot: plot - t0, spans: spans - t0, both: Math.max(plot, spans) - t0, quickMs, where, steps, live: live - t0, plotDraw: plot - plotStart, asked: asked - t0, render: plotStart - live };
     }
     if (performance.now() > t0 + 10000) throw new Error("revision " + rev + " was not drawn within 10 s");
     await new Promise((r) => setTimeout(r, 1));
@@ -109,10 +117,29 @@ async function pace(page: Page, gapMs: number, label: string) {
     quickTierMs: stats(samples.map((s) => s.quickMs).filter(Number.isFinite)),
     analysisBack: stats(samples.map((s) => s.live)),
     plotDraw: stats(samples.map((s) => s.plotDraw)),
+    asked: stats(samples.map((s) => s.asked)),
+    render: stats(samples.map((s) => s.render)),
     quickSteps: (["subchain", "analysis", "curves"] as const).map((k) => `${k} ${stats(samples.flatMap((s) => (s.steps ? [s.steps[k]] : []))).median.toFixed(1)} ms`).join(", "),
     quickWhere: Object.entries(samples.reduce<Record<string, number>>((acc, s) => ((acc[s.where] = (acc[s.where] ?? 0) + 1), acc), {})).map(([k, n]) => `${k} ${n}`).join(", "),
   };
   return out;
+}
+
+/** Self time by function and script, busiest first (idle and the profiler itself left out). */
+function printHeaviest(profile: { nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number } }[]; samples?: number[]; timeDeltas?: number[] }) {
+  const byId = new Map(profile.nodes.map((n) => [n.id, n]));
+  const self = new Map<string, number>();
+  let busy = 0;
+  (profile.samples ?? []).forEach((id, i) => {
+    const frame = byId.get(id)!.callFrame;
+    if (frame.functionName === "(idle)" || frame.functionName === "(program)") return;
+    const dt = (profile.timeDeltas?.[i] ?? 0) / 1000;
+    const key = `${frame.functionName || "(anonymous)"}  ${frame.url.split("/").pop() || "-"}:${frame.lineNumber + 1}`;
+    self.set(key, (self.get(key) ?? 0) + dt);
+    busy += dt;
+  });
+  console.log(`\nmain thread during the typing pace: ${busy.toFixed(0)} ms busy; heaviest self time:`);
+  for (const [k, ms] of [...self].sort((a, b) => b[1] - a[1]).slice(0, 25)) console.log(`  ${ms.toFixed(1).padStart(8)} ms  ${k}`);
 }
 
 async function main() {
@@ -142,7 +169,20 @@ async function main() {
     const workers = page.workers().length;
     await page.screenshot({ path: path.join(ARTIFACTS, "bench-ui-chain.png") });
 
-    const results = [await pace(page, 200, "typing (edit every 200 ms)"), await pace(page, 1200, "pauses (edit every 1.2 s)")];
+    const cdp = PROFILE ? await context.newCDPSession(page) : null;
+    if (cdp) {
+      await cdp.send("Profiler.enable");
+      await cdp.send("Profiler.setSamplingInterval", { interval: 200 });
+      await cdp.send("Profiler.start");
+    }
+    const typing = await pace(page, 200, "typing (edit every 200 ms)");
+    if (cdp) {
+      const { profile } = await cdp.send("Profiler.stop");
+      mkdirSync(ARTIFACTS, { recursive: true });
+      writeFileSync(path.join(ARTIFACTS, "bench-ui.cpuprofile"), JSON.stringify(profile));
+      printHeaviest(profile);
+    }
+    const results = [typing, await pace(page, 1200, "pauses (edit every 1.2 s)")];
     const ms = (x: number) => `${x.toFixed(1)} ms`;
     console.log(`\nEdit → plot and rail spans, 10-stage chain at 1,000 points, headless Chromium 1280×800, ${EDITS} edits per pace after ${WARMUP} warm-up; ${workers} web workers started\n`);
     for (const r of results) {
@@ -152,6 +192,7 @@ async function main() {
       console.log(`  edit → both              median ${ms(r.both.median)}   p95 ${ms(r.both.p95)}   max ${ms(r.both.max)}   (target p95 < 50 ms: ${r.both.p95 < 50 ? "met" : "NOT met"})`);
       console.log(`  quick analysis steps (medians): ${r.quickSteps}`);
       if (r.quickTierMs.n) console.log(`  of which: quick analysis (${r.quickWhere}) median ${ms(r.quickTierMs.median)} (p95 ${ms(r.quickTierMs.p95)}); edit → result on the main thread median ${ms(r.analysisBack.median)} (p95 ${ms(r.analysisBack.p95)}); figure + Plotly redraw median ${ms(r.plotDraw.median)} (p95 ${ms(r.plotDraw.p95)})`);
+      console.log(`  steps (median / p95): edit → analysis asked ${ms(r.asked.median)} / ${ms(r.asked.p95)}; result → plot update starts ${ms(r.render.median)} / ${ms(r.render.p95)}`);
     }
     mkdirSync(ARTIFACTS, { recursive: true });
     writeFileSync(path.join(ARTIFACTS, "bench-ui.json"), JSON.stringify({ when: new Date().toISOString(), edits: EDITS, workers, results }, null, 2));

@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
 import { launchBrowser, newSession, screenshot } from "./support/browser";
 import { e2eContext } from "./support/context";
-import { card, createBlankChain, dragConnect, pressOnCanvas, selectCard, serverChain, typeInto, waitForPlot, waitForSaveState, waitForStatus } from "./workspace-support";
+import { card, createBlankChain, createFromExample, dragConnect, pressOnCanvas, selectCard, serverChain, typeInto, waitForPlot, waitForSaveState, waitForStatus } from "./workspace-support";
 
 const ctx = e2eContext();
 
@@ -183,16 +183,62 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
   it("starts a chain from an example and shows it analysed", async () => {
     const { context, page } = await newSession(browser);
     await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
-    await page.getByRole("link", { name: "New chain" }).click();
-    await page.getByRole("radio", { name: "Turbidity photodiode, two channels" }).check();
-    await page.getByRole("button", { name: "Create and open" }).click();
-    await page.waitForURL(/\/chains\/[0-9a-f-]{36}$/);
-    await waitForPlot(page);
+    await createFromExample(page, "Turbidity photodiode, two channels");
     for (const id of ["u1", "u2", "adc1", "adc2"]) await waitForStatus(page, id, "ok");
     // two converters: the plot offers both paths
     await expect(page.getByLabel("Path to plot").locator("option").allTextContents()).resolves.toEqual(["adc1", "adc2"]);
     await screenshot(page, "workspace-template");
+    await context.close();
+  });
+
+  it("redraws an edited curve at once, where Plotly itself then draws it", async () => {
+    const { context, page } = await newSession(browser);
+    const errors: string[] = [];
+    page.on("pageerror", (e) => errors.push(e.message));
+    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
+    await createFromExample(page, "Turbidity photodiode, two channels");
+    await selectCard(page, "u2"); // the plot follows the anti-alias stage
+    await page.waitForTimeout(800); // the selection's full redraw has settled
+
+    // In the page: change c2, take the emphasised magnitude line as first drawn for that edit, then
+    // again after Plotly has caught up with it.
+    const result = await page.evaluate(async () => {
+      const line = () => {
+        for (const g of document.querySelectorAll('[data-testid="plot-area"] .scatterlayer g.trace')) {
+          const trace = (g as Element & { __data__?: { trace?: { yaxis?: string; line?: { width?: number } } }[] }).__data__?.[0]?.trace;
+          if (trace?.yaxis === "y" && (trace.line?.width ?? 0) > 2) return [...g.querySelectorAll("path.js-line")].map((p) => p.getAttribute("d") ?? "").join("");
+        }
+        return null;
+      };
+      const before = line();
+      const count = () => performance.getEntriesByType("mark").filter((m) => m.name.startsWith("cw:plot:")).length;
+      const marks = count();
+      const input = document.querySelector<HTMLInputElement>("#f-c2")!;
+      Object.getOwnPropertyDescriptor(HTMLInputElement.prototype, "value")!.set!.call(input, "3.9n");
+      input.dispatchEvent(new Event("input", { bubbles: true }));
+      const t0 = performance.now();
+      while (count() === marks) {
+        if (performance.now() - t0 > 5000) throw new Error("no redraw after the edit");
+        await new Promise((r) => setTimeout(r, 1));
+      }
+      const direct = line();
+      await new Promise((r) => setTimeout(r, 1000));
+      return { before, direct, plotly: line() };
+    });
+    expect(result.before).not.toBeNull();
+    expect(result.direct).not.toBe(result.before);
+    expect(result.plotly).not.toBe(result.direct); // Plotly redrew it (it writes its own path text)
+    const points = (d: string) => [...d.matchAll(/[ML](-?[\d.]+),(-?[\d.]+)/g)].map((m) => [Number(m[1]), Number(m[2])]);
+    const ours = points(result.direct!);
+    const theirs = points(result.plotly!);
+    expect(ours.length).toBeGreaterThan(100);
+    expect(theirs.length).toBeGreaterThan(20);
+    // Plotly keeps a subset of the points (it drops those a straight line covers) and may add points
+    // where the line leaves the plot area: nearly every one of its vertices is one of ours, within a
+    // fraction of a pixel.
+    const near = theirs.filter(([x, y]) => ours.some(([u, v]) => Math.hypot(u - x, v - y) < 0.6)).length;
+    expect(near / theirs.length).toBeGreaterThan(0.9);
+    expect(errors).toEqual([]);
     await context.close();
   });
 });

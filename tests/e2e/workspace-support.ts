@@ -28,6 +28,17 @@ export async function createBlankChain(page: Page, name: string): Promise<string
   return new URL(page.url()).pathname.split("/").pop()!;
 }
 
+/** New chain from one of the examples, by its title, once signed in; ends with its plot drawn. */
+export async function createFromExample(page: Page, title: string): Promise<string> {
+  await page.waitForURL(/\/chains$/);
+  await page.getByRole("link", { name: "New chain" }).click();
+  await page.getByRole("radio", { name: title }).check();
+  await page.getByRole("button", { name: "Create and open" }).click();
+  await page.waitForURL(/\/chains\/[0-9a-f-]{36}$/);
+  await waitForPlot(page);
+  return new URL(page.url()).pathname.split("/").pop()!;
+}
+
 /** Select a node by clicking its card's title line (not a handle). */
 export async function selectCard(page: Page, id: string): Promise<void> {
   await card(page, id).locator("div.truncate").first().click();

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import Papa from "papaparse";
-import { ACCENT, GROUPED, OTHERS_COLOUR, buildFigure, dbPhase, figureShape, hoverIndex, plotCsv, plotLegend, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
+import { ACCENT, GROUPED, OTHERS_COLOUR, buildFigure, dbPhase, figureMarks, figureShape, hoverIndex, plotCsv, plotLegend, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
 import type { LiveCurves } from "@/lib/store/live-analysis";
 import type { StageResult } from "@/lib/chain/types";
 
@@ -119,15 +119,20 @@ describe("buildFigure with many stages", () => {
   });
 });
 
-describe("figureShape", () => {
-  it("is the same when only curve values change, and differs when a marker moves", () => {
+describe("figureShape and figureMarks", () => {
+  it("keep the shape when only curve values or markers change, and tell a moved marker apart", () => {
     const a = buildFigure(plotSeries(input()), plotMarkers(input()), f);
     const shifted = { ...curves, cumRe: curves.cumRe.map((r) => r.map((v) => v * 0.99)) };
     const b = buildFigure(plotSeries(input({ curves: shifted })), plotMarkers(input({ curves: shifted })), f);
     expect(figureShape(b)).toBe(figureShape(a));
+    expect(figureMarks(b)).toBe(figureMarks(a));
     const moved = { ...input(), stages: { u1: { ...u1, f0: 120 } } };
     const c = buildFigure(plotSeries(moved), plotMarkers(moved), f);
-    expect(figureShape(c)).not.toBe(figureShape(a));
+    expect(figureShape(c)).toBe(figureShape(a));
+    expect(figureMarks(c)).not.toBe(figureMarks(a));
+    // a curve more on the plot is a new shape
+    const fewer = buildFigure(plotSeries(input()).slice(1), plotMarkers(input()), f);
+    expect(figureShape(fewer)).not.toBe(figureShape(a));
   });
 });
 
