@@ -14,44 +14,65 @@ import type { AnalysisRequest, AnalysisResponse } from "./analysis-protocol";
 
 export interface TierRunner {
   run(req: AnalysisRequest): Promise<AnalysisResponse>;
+  /**
+   * The answer at once, computed in this thread, when this runner would compute it here anyway; undefined
+   * when it would not (a worker). The driver then publishes the figures inside the edit that asked for
+   * them, and the page renders the edit and its figures in one pass.
+   */
+  runNow?(req: AnalysisRequest): AnalysisResponse | undefined;
   dispose(): void;
 }
 
+function compute(req: AnalysisRequest): AnalysisResponse {
+  return req.tier === "quick" ? { tier: "quick", seq: req.seq, quick: quickTier(req.doc) } : { tier: "full", seq: req.seq, full: fullTier(req.doc) };
+}
+
 /**
- * Runs requests in this thread, right after the code that asked (a microtask): the edit and its figures
- * then reach the screen in the same frame, with no task or frame in between. Used while the quick tier
- * takes a few milliseconds (adaptiveRunner), in tests, and in browsers without module workers.
+ * Runs requests in this thread: at once through `runNow`, or right after the code that asked (a
+ * microtask) through `run`; either way the edit and its figures reach the screen in the same frame. Used
+ * while the quick tier takes less than a frame (adaptiveRunner), in tests, and in browsers without
+ * module workers.
  */
 export function inlineRunner(): TierRunner {
   return {
-    run: (req) =>
-      new Promise((resolve) =>
-        queueMicrotask(() => resolve(req.tier === "quick" ? { tier: "quick", seq: req.seq, quick: quickTier(req.doc) } : { tier: "full", seq: req.seq, full: fullTier(req.doc) })),
-      ),
+    run: (req) => new Promise((resolve) => queueMicrotask(() => resolve(compute(req)))),
+    runNow: compute,
     dispose() {},
   };
 }
 
 /**
- * The quick tier where it is fastest overall: in this thread while it stays within `budgetMs` (a handful of
- * milliseconds per edit: no worker round trip, and typing is not held up noticeably), in the worker once a
- * chain makes it slower than that. The choice follows the median of the last three measured runs, so a
- * growing chain moves to the worker and a shrinking one comes back, while one slow run (a garbage
- * collection in the middle of it) does not send the next edit on a round trip.
+ * The quick tier where it is fastest overall: in this thread while it stays within `budgetMs` (one frame at
+ * 60 Hz by default: no worker round trip, which costs about 10 ms in headless Chromium here, and a keystroke
+ * is held up by less than a frame), in the worker once a chain makes it slower than that. The choice follows
+ * the median of the last three measured runs, so a growing chain moves to the worker and a shrinking one
+ * comes back, while one slow run (a garbage collection in the middle of it) does not send the next edit on a
+ * round trip.
  */
-export function adaptiveRunner(inline: TierRunner, worker: TierRunner, budgetMs = 8): TierRunner & { where(): "inline" | "worker" } {
+export function adaptiveRunner(inline: TierRunner, worker: TierRunner, budgetMs = 16): TierRunner & { where(): "inline" | "worker" } {
   const recent: number[] = [];
   let where: "inline" | "worker" = "inline";
+  const choose = () => {
+    const sorted = [...recent].sort((a, b) => a - b);
+    where = !sorted.length || sorted[(sorted.length - 1) >> 1] <= budgetMs ? "inline" : "worker";
+    return where;
+  };
+  const record = (res: AnalysisResponse) => {
+    if (res.tier !== "quick") return;
+    recent.push(res.quick.ms);
+    if (recent.length > 3) recent.shift();
+  };
   return {
     where: () => where,
     run: async (req) => {
-      const sorted = [...recent].sort((a, b) => a - b);
-      where = !sorted.length || sorted[(sorted.length - 1) >> 1] <= budgetMs ? "inline" : "worker";
-      const res = await (where === "inline" ? inline : worker).run(req);
-      if (res.tier === "quick") {
-        recent.push(res.quick.ms);
-        if (recent.length > 3) recent.shift();
-      }
+      const res = await (choose() === "inline" ? inline : worker).run(req);
+      record(res);
+      return res;
+    },
+    runNow: (req) => {
+      if (choose() !== "inline" || !inline.runNow) return undefined;
+      const res = inline.runNow(req);
+      if (res) record(res);
       return res;
     },
     dispose() {
@@ -133,15 +154,26 @@ export function startAnalysis(store: EditorStore, runners: { quick: TierRunner; 
     s.actions.setLive(assembleLive(lastQuick.doc, lastQuick.rev, lastQuick.tier, lastFull, s.live));
   };
 
+  const landQuick = (res: AnalysisResponse, doc: DraftDoc, r: number) => {
+    if (stopped || res.tier !== "quick") return;
+    lastQuick = { doc, rev: r, tier: res.quick };
+    publish();
+    const where = "where" in runners.quick ? (runners.quick as { where(): string }).where() : "worker";
+    mark(`cw:live:${r}`, { quickMs: res.quick.ms, steps: res.quick.steps, where });
+  };
+
   const sendQuick = (doc: DraftDoc, r: number) => {
+    const req: AnalysisRequest = { tier: "quick", seq: ++seq, doc };
+    // nothing is in flight here, so an answer computed at once cannot be overtaken by an older one
+    const now = runners.quick.runNow?.(req);
+    if (now) {
+      landQuick(now, doc, r);
+      return;
+    }
     quickBusy = true;
-    void runners.quick.run({ tier: "quick", seq: ++seq, doc }).then((res) => {
+    void runners.quick.run(req).then((res) => {
       quickBusy = false;
-      if (stopped || res.tier !== "quick") return;
-      lastQuick = { doc, rev: r, tier: res.quick };
-      publish();
-      const where = "where" in runners.quick ? (runners.quick as { where(): string }).where() : "worker";
-      mark(`cw:live:${r}`, { quickMs: res.quick.ms, steps: res.quick.steps, where });
+      landQuick(res, doc, r);
       if (quickNext) {
         const n = quickNext;
         quickNext = null;

@@ -45,6 +45,17 @@ describe("startAnalysis", () => {
     driver.stop();
   });
 
+  it("publishes the figures inside the edit itself when the quick tier runs in this thread", () => {
+    const store = createEditorStore({ doc: findTemplate("ballast-bridge")!.make(), chainId: "c" });
+    const driver = startAnalysis(store, { quick: inlineRunner(), full: counting() }, { fullDelayMs: 10_000 });
+    expect(store.getState().live?.doc).toBe(store.getState().doc); // the opening draft, analysed at once
+    store.getState().actions.setParam("u1", "rf", 150e3);
+    // no await in between: the edit and its analysis land together
+    expect(store.getState().live!.doc).toBe(store.getState().doc);
+    expect(store.getState().live!.stageById.u1.dcGain).toBeCloseTo(151, 0);
+    driver.stop();
+  });
+
   it("asks nothing when only positions change", async () => {
     const store = createEditorStore({ doc: findTemplate("ballast-bridge")!.make(), chainId: "c" });
     const quick = counting();
@@ -71,6 +82,19 @@ describe("adaptiveRunner", () => {
     await runner.run({ tier: "quick", seq: 2, doc }); // the first took 20 ms: over budget
     expect(runner.where()).toBe("worker");
     expect(worker.calls).toHaveLength(1);
+  });
+
+  it("answers at once only while it would run in this thread", async () => {
+    const doc = findTemplate("ballast-bridge")!.make();
+    const worker = counting();
+    const runner = adaptiveRunner(inlineRunner(), worker, 1e9);
+    const now = runner.runNow!({ tier: "quick", seq: 1, doc });
+    expect(now?.tier).toBe("quick");
+    const strict = adaptiveRunner(inlineRunner(), worker, -1); // every run is over this budget
+    expect(strict.runNow!({ tier: "quick", seq: 2, doc })).toBeDefined(); // nothing measured yet: here
+    expect(strict.runNow!({ tier: "quick", seq: 3, doc })).toBeUndefined(); // then the worker's
+    await strict.run({ tier: "quick", seq: 4, doc });
+    expect(worker.calls.map((c) => c.seq)).toEqual([4]);
   });
 });
 
