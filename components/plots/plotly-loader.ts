@@ -5,7 +5,6 @@
 export interface PlotlyLike {
   react(el: HTMLElement, data: unknown[], layout: unknown, config?: unknown): Promise<unknown>;
   purge(el: HTMLElement): void;
-  animate(el: HTMLElement, frame: unknown, opts?: unknown): Promise<unknown>;
   Plots: { resize(el: HTMLElement): void };
 }
 

@@ -12,9 +12,8 @@ import { buildFigure, figureMarks, figureShape, hoverIndex, plotCsv, plotLegend,
 import { loadPlotly, type PlotlyLike } from "./plotly-loader";
 import { drawCurvesDirectly } from "./direct-draw";
 
-/** How long after the last direct redraw Plotly redraws the changed curves itself (its hover and zoom state). */
+/** How long after the last direct redraw Plotly redraws the figure itself (its hover and zoom state). */
 const CATCH_UP_MS = 250;
-const NO_TRANSITION = { transition: { duration: 0 }, frame: { duration: 0, redraw: false }, mode: "immediate" };
 const PLOT_CONFIG = { displaylogo: false, responsive: true, displayModeBar: false, doubleClick: "reset" };
 
 function sameValues(a: (number | null)[], b: (number | null)[] | undefined): boolean {
@@ -82,26 +81,26 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
   const drawnRef = useRef<(number | null)[][]>([]);
   const figRef = useRef<Figure | null>(null);
   const markers = useMemo(() => (input ? plotMarkers(input) : []), [input]);
-  // what is on screen but not yet in Plotly's own state: curves written directly (direct-draw), and
-  // markers that moved meanwhile (they follow when Plotly catches up)
-  const behindRef = useRef(new Set<number>());
-  const marksBehindRef = useRef(false);
+  // true while the screen shows curves written directly (direct-draw) that Plotly has not drawn itself; moved
+  // markers wait for that moment too
+  const behindRef = useRef(false);
   const catchUpRef = useRef<ReturnType<typeof setTimeout> | null>(null);
 
-  /** Plotly draws what was written directly (and moved markers), so its own state matches the screen again. */
+  /**
+   * Plotly draws the whole figure again (the curves written directly, moved markers), so its own state
+   * matches the screen. A full react and not an animate of the changed traces: an animate leaves out the
+   * curves of a panel none of whose traces it names.
+   */
   const catchUp = useCallback((): Promise<unknown> => {
     if (catchUpRef.current) clearTimeout(catchUpRef.current);
     catchUpRef.current = null;
     const node = el.current;
     const p = plotly.current;
-    const traces = [...behindRef.current];
-    const marks = marksBehindRef.current;
-    behindRef.current.clear();
-    marksBehindRef.current = false;
-    if (!node || !p) return Promise.resolve();
-    if (marks && figRef.current) return p.react(node, figRef.current.data, figRef.current.layout, PLOT_CONFIG);
-    if (!traces.length) return Promise.resolve();
-    return p.animate(node, { data: traces.map((i) => ({ y: drawnRef.current[i] })), traces }, NO_TRANSITION);
+    const fig = figRef.current;
+    const behind = behindRef.current;
+    behindRef.current = false;
+    if (!node || !p || !fig || !behind) return Promise.resolve();
+    return p.react(node, fig.data, fig.layout, PLOT_CONFIG);
   }, []);
 
   useEffect(() => {
@@ -145,10 +144,8 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
       // Same traces and axes as on screen: only the curves whose values changed are replaced (editing the
       // stage the plot follows leaves every curve before it as it was). They are written into the drawn
       // paths at once, and Plotly catches up (moved markers with it) when the edits pause; where that
-      // cannot be done, Plotly draws them now.
-      for (const i of changed) behindRef.current.add(i);
-      if (marks !== marksRef.current) marksBehindRef.current = true;
-      drawnRef.current = ys;
+      // cannot be done, Plotly draws the figure now.
+      behindRef.current = true;
       if (drawCurvesDirectly(node, changed.map((i) => ({ trace: i, x: fig.data[i].x as (number | null)[], y: ys[i] })))) {
         if (catchUpRef.current) clearTimeout(catchUpRef.current);
         catchUpRef.current = setTimeout(catchUp, CATCH_UP_MS);
@@ -160,8 +157,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
     } else {
       if (catchUpRef.current) clearTimeout(catchUpRef.current);
       catchUpRef.current = null;
-      behindRef.current.clear();
-      marksBehindRef.current = false;
+      behindRef.current = false;
       drawn = p.react(node, fig.data, fig.layout, PLOT_CONFIG);
     }
     shapeRef.current = shape;
@@ -185,7 +181,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
     node.on("plotly_unhover", () => setHoverK(null));
     // a zoom or resize redraws from Plotly's own data: bring it up to date with the curves on screen
     const behind = () => {
-      if (behindRef.current.size) void catchUp();
+      if (behindRef.current) void catchUp();
     };
     node.on("plotly_relayout", behind);
     node.on("plotly_afterplot", behind);

@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
 import { launchBrowser, newSession, screenshot } from "./support/browser";
 import { e2eContext } from "./support/context";
+import { findTemplate } from "../../lib/templates";
 import { card, createBlankChain, createFromExample, dragConnect, pressOnCanvas, selectCard, serverChain, typeInto, waitForPlot, waitForSaveState, waitForStatus } from "./workspace-support";
 
 const ctx = e2eContext();
@@ -239,6 +240,42 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
     const near = theirs.filter(([x, y]) => ours.some(([u, v]) => Math.hypot(u - x, v - y) < 0.6)).length;
     expect(near / theirs.length).toBeGreaterThan(0.9);
     expect(errors).toEqual([]);
+    await context.close();
+  });
+
+  it("keeps both panels when an edit moves only the magnitude curve", async () => {
+    const { context, page } = await newSession(browser);
+    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
+    await page.waitForURL(/\/chains$/);
+    // the bridge example with an ideal op-amp in its first stage: a gain change moves its magnitude
+    // and leaves its phase (0°) exactly as it was
+    const doc = findTemplate("ballast-bridge")!.make();
+    for (const n of doc.nodes) if (n.id === "u1") delete (n as { part?: string }).part;
+    const res = await page.request.post("/api/chains", { data: { name: `Ideal first stage ${Date.now()}`, document: doc } });
+    expect(res.status()).toBe(201);
+    await page.goto(`/chains/${(await res.json()).chain.id}`);
+    await waitForPlot(page);
+    await selectCard(page, "u1");
+    await page.waitForTimeout(800);
+    const lines = () =>
+      page.evaluate(() =>
+        [...document.querySelectorAll('[data-testid="plot-area"] .scatterlayer g.trace')].map((g) => ({
+          axis: (g as Element & { __data__?: { trace?: { yaxis?: string } }[] }).__data__?.[0]?.trace?.yaxis,
+          d: [...g.querySelectorAll("path.js-line")].map((p) => p.getAttribute("d") ?? "").join(""),
+        })),
+      );
+    const before = await lines();
+    expect(before.map((l) => l.axis)).toEqual(["y", "y2"]);
+    await page.evaluate(() => {
+      const input = document.querySelector<HTMLInputElement>("#f-rf")!;
+      Object.getOwnPropertyDescriptor(HTMLInputElement.prototype, "value")!.set!.call(input, "76k"); // 75k → 76k: same dB range
+      input.dispatchEvent(new Event("input", { bubbles: true }));
+    });
+    await page.waitForTimeout(1000); // past the moment Plotly catches up
+    const after = await lines();
+    expect(after.map((l) => l.axis)).toEqual(["y", "y2"]);
+    expect(after[0].d).not.toBe(before[0].d);
+    expect(after[1].d).toBe(before[1].d);
     await context.close();
   });
 });
