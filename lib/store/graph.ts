@@ -63,12 +63,20 @@ export function pathTo(doc: { nodes: readonly { id: string; kind: string }[]; ed
 }
 
 /** Card pitch on the canvas (cards are 184 px wide), in flow units. */
-export const LAYOUT = { columnGap: 220, rowGap: 180, originX: 40, originY: 40 };
+/**
+ * Layout grid. `wrapColumns`: a chain deeper than this continues on a band below, from the left again, so
+ * a long chain stays readable in a fitted view (twelve columns fitted to the canvas at 1280×800 shrink the
+ * cards to a third; two bands of six keep them above half size). `bandGap`: the room between bands for
+ * the connection that runs back to the left.
+ */
+export const LAYOUT = { columnGap: 220, rowGap: 180, originX: 40, originY: 40, wrapColumns: 6, bandGap: 70 };
 
 /**
  * Tidy layout, left to right. Each node has at most one input, so the graph is a forest: columns are the
  * depth from a root, leaves take consecutive rows and a parent sits at the mean row of its children, so
  * fan-out reads as a fork. Trees are stacked top to bottom: the source's tree first, loose nodes after.
+ * Deeper than `LAYOUT.wrapColumns`, the columns continue on bands below (column 7 is the first of the
+ * second band), each band as tall as all the rows.
  */
 export function tidyLayout(doc: { nodes: readonly { id: string; kind: string }[]; edges: readonly Edge[] }): Record<string, Position> {
   const children = adjacency(doc.edges);
@@ -100,11 +108,16 @@ export function tidyLayout(doc: { nodes: readonly { id: string; kind: string }[]
   for (const r of roots) place(r, 0, guard);
   // Anything left (only possible in a malformed draft with a cycle) goes on its own rows.
   for (const n of doc.nodes) if (!rows.has(n.id)) place(n.id, 0, guard);
+  const deepest = Math.max(0, ...depth.values());
+  const wrap = deepest + 1 > LAYOUT.wrapColumns ? LAYOUT.wrapColumns : deepest + 1;
+  const bandHeight = Math.max(1, nextRow) * LAYOUT.rowGap + LAYOUT.bandGap;
   const result: Record<string, Position> = {};
   for (const n of doc.nodes) {
+    const d = depth.get(n.id) ?? 0;
+    const band = Math.floor(d / wrap);
     result[n.id] = {
-      x: LAYOUT.originX + (depth.get(n.id) ?? 0) * LAYOUT.columnGap,
-      y: LAYOUT.originY + (rows.get(n.id) ?? 0) * LAYOUT.rowGap,
+      x: LAYOUT.originX + (d - band * wrap) * LAYOUT.columnGap,
+      y: LAYOUT.originY + band * bandHeight + (rows.get(n.id) ?? 0) * LAYOUT.rowGap,
     };
   }
   return result;

@@ -78,4 +78,24 @@ describe("tidyLayout", () => {
     expect(p.loose.x).toBe(LAYOUT.originX);
     expect(p.loose.y).toBeGreaterThan(p.adc2.y);
   });
+
+  it("continues a chain deeper than the wrap on a band below, from the left again", () => {
+    const ids = ["src", ...Array.from({ length: 10 }, (_, i) => `g${i + 1}`), "adc1"];
+    const nodes = ids.map((id, i) => node(id, i === 0 ? "source" : i === ids.length - 1 ? "adc" : "noninverting"));
+    const edges = ids.slice(1).map((id, i) => ({ from: ids[i], to: id }));
+    const p = tidyLayout(doc(nodes, edges));
+    const w = LAYOUT.wrapColumns;
+    // the first band: columns 0 … w−1 on one line
+    for (let i = 0; i < w; i++) expect(p[ids[i]]).toEqual({ x: LAYOUT.originX + i * LAYOUT.columnGap, y: LAYOUT.originY });
+    // the rest: from the left again, one band lower (one row tall here, plus the gap)
+    for (let i = w; i < ids.length; i++) {
+      expect(p[ids[i]]).toEqual({ x: LAYOUT.originX + (i - w) * LAYOUT.columnGap, y: LAYOUT.originY + LAYOUT.rowGap + LAYOUT.bandGap });
+    }
+  });
+
+  it("leaves a chain of exactly the wrap width on one line", () => {
+    const ids = Array.from({ length: LAYOUT.wrapColumns }, (_, i) => `n${i}`);
+    const p = tidyLayout(doc(ids.map((id, i) => node(id, i ? "rcLowpass" : "source")), ids.slice(1).map((id, i) => ({ from: ids[i], to: id }))));
+    expect(new Set(ids.map((id) => p[id].y)).size).toBe(1);
+  });
 });
