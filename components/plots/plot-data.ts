@@ -207,6 +207,32 @@ function extremes(values: Float64Array): { top: number; bottom: number } {
   return e;
 }
 
+const LABEL_ROW_PX = 11;
+const LABEL_CHAR_PX = 5.6; // a 10 px label, about this wide per character
+const LABEL_ROWS = 3;
+
+/**
+ * The row (0 nearest the plot) of each marker label above the plot: left to right, each label takes the
+ * lowest row where it clears the label before it by a few pixels, judged from its length and the plot's
+ * width in pixels; when no row is clear it takes the one whose last label ends furthest left.
+ */
+export function labelRows(markers: Marker[], f: Float64Array, plotWidthPx: number): Map<Marker, number> {
+  const out = new Map<Marker, number>();
+  if (!f.length) return out;
+  const decades = Math.max(1e-9, Math.log10(f[f.length - 1] / f[0]));
+  const pxPerDecade = Math.max(50, plotWidthPx - 58) / decades; // less the plot's side margins
+  const ends = new Array<number>(LABEL_ROWS).fill(-Infinity); // right edge of each row so far, in px
+  for (const m of [...markers].sort((a, b) => a.f - b.f)) {
+    const centre = Math.log10(m.f / f[0]) * pxPerDecade;
+    const half = (m.label.length * LABEL_CHAR_PX) / 2;
+    let row = ends.findIndex((end) => end + 4 <= centre - half);
+    if (row < 0) row = ends.indexOf(Math.min(...ends));
+    ends[row] = centre + half;
+    out.set(m, row);
+  }
+  return out;
+}
+
 export interface Figure {
   data: Record<string, unknown>[];
   layout: Record<string, unknown>;
@@ -217,7 +243,7 @@ export interface Figure {
  * drawn in one muted trace per panel (the curves one after another, separated by gaps), so the cost of a
  * redraw does not grow with the number of stages. The cursor readout names each curve.
  */
-export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64Array): Figure {
+export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64Array, plotWidthPx = 700): Figure {
   const x = plainX(f);
   const data: Record<string, unknown>[] = [];
   const others = series.filter((s) => !s.emphasis);
@@ -236,9 +262,12 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
   }
   const shapes: Record<string, unknown>[] = [];
   const annotations: Record<string, unknown>[] = [];
-  let level = 0;
   const sorted = [...markers].sort((a, b) => a.f - b.f);
-  let lastF = 0;
+  const placed = labelRows(
+    sorted.filter((m) => m.kind !== "band"),
+    f,
+    plotWidthPx,
+  );
   for (const m of sorted) {
     if (m.kind === "band") {
       shapes.push({ type: "rect", xref: "x", yref: "paper", x0: m.f, x1: m.f2, y0: 0, y1: 1, fillcolor: "#cfe3e1", opacity: 0.35, line: { width: 0 }, layer: "below" });
@@ -247,11 +276,9 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
     const dash = m.kind === "corner" ? "dot" : m.kind === "nyquist" ? "dash" : "dashdot";
     const colour = m.kind === "corner" ? "#7b8088" : m.kind === "nyquist" ? "#24272c" : "#946019";
     shapes.push({ type: "line", xref: "x", yref: "paper", x0: m.f, x1: m.f, y0: 0, y1: 1, line: { color: colour, width: 1, dash } });
-    // Labels sit above the plot; those of markers close together alternate between two rows.
-    level = lastF > 0 && Math.log10(m.f / lastF) < 0.35 ? (level + 1) % 2 : 0;
-    lastF = m.f;
-    annotations.push({ x: Math.log10(m.f), xref: "x", y: 1, yref: "paper", yanchor: "bottom", yshift: level * 11, text: m.label, showarrow: false, font: { size: 10, color: colour } });
+    annotations.push({ x: Math.log10(m.f), xref: "x", y: 1, yref: "paper", yanchor: "bottom", yshift: placed.get(m)! * LABEL_ROW_PX, text: m.label, showarrow: false, font: { size: 10, color: colour } });
   }
+  const labelRowsUsed = Math.max(0, ...placed.values()) + 1;
   let top = -Infinity;
   let bottom = Infinity;
   for (const s of series) {
@@ -263,7 +290,7 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
   const yTop = Number.isFinite(top) ? Math.ceil((top + 2) / 10) * 10 : undefined;
   const yRange = yTop === undefined ? undefined : [Math.floor(Math.max(bottom - 2, yTop - 150) / 10) * 10, yTop];
   const layout = {
-    margin: { l: 46, r: 12, t: 26, b: 34 },
+    margin: { l: 46, r: 12, t: 15 + labelRowsUsed * LABEL_ROW_PX, b: 34 },
     paper_bgcolor: "#fbfaf7",
     plot_bgcolor: "#fbfaf7",
     font: { family: "var(--font-geist-sans), system-ui, sans-serif", size: 11, color: "#3c4047" },

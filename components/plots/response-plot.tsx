@@ -103,6 +103,17 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
     return p.react(node, fig.data, fig.layout, PLOT_CONFIG);
   }, []);
 
+  // the plot's width for placing marker labels, from a ResizeObserver: reading clientWidth while drawing
+  // would force a layout of the page on every edit
+  const widthRef = useRef(0);
+  useEffect(() => {
+    const node = el.current;
+    if (!node || typeof ResizeObserver === "undefined") return;
+    const watch = new ResizeObserver((entries) => (widthRef.current = entries[0]?.contentRect.width ?? 0));
+    watch.observe(node);
+    return () => watch.disconnect();
+  }, []);
+
   useEffect(() => {
     let gone = false;
     loadPlotly().then(
@@ -133,7 +144,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
     pointsRef.current = input.curves.f.length;
     const rev = store.getState().live?.rev;
     performance.mark(`cw:plot-start:${rev}`);
-    const fig = buildFigure(series, markers, input.curves.f);
+    const fig = buildFigure(series, markers, input.curves.f, widthRef.current || undefined);
     figRef.current = fig;
     const shape = figureShape(fig);
     const marks = figureMarks(fig);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import Papa from "papaparse";
-import { ACCENT, GROUPED, OTHERS_COLOUR, buildFigure, dbPhase, figureMarks, figureShape, hoverIndex, plotCsv, plotLegend, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
+import { ACCENT, GROUPED, OTHERS_COLOUR, buildFigure, dbPhase, figureMarks, figureShape, labelRows, hoverIndex, plotCsv, plotLegend, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
 import type { LiveCurves } from "@/lib/store/live-analysis";
 import type { StageResult } from "@/lib/chain/types";
 
@@ -164,5 +164,34 @@ describe("readoutAt", () => {
     const r = readoutAt(plotSeries(input()), f, 2);
     expect(r.f).toBe("100.0 Hz");
     expect(r.items[0]).toEqual({ id: "u1", name: "u1 Low-pass", db: "−3.01 dB", ph: "−45.0°" });
+  });
+});
+
+describe("labelRows", () => {
+  // 1 Hz … 1 MHz over 658 px of plot: 100 px per decade; a 6-character label is about 34 px wide
+  const grid = Float64Array.of(1, 1e6);
+  const at = (f: number, label = "u1 f0 ") => ({ kind: "corner" as const, f, label });
+  it("keeps labels that clear each other on the row next to the plot", () => {
+    const ms = [at(10), at(1e3), at(1e5)];
+    const rows = labelRows(ms, grid, 700);
+    expect(ms.map((m) => rows.get(m))).toEqual([0, 0, 0]);
+  });
+  it("lifts a label that would overlap its neighbour, and reuses a lower row once it is clear", () => {
+    // 0.1 decade apart = 10 px: each overlaps the one before; the fourth clears the first row again
+    const ms = [at(100), at(100 * 10 ** 0.1), at(100 * 10 ** 0.2), at(100 * 10 ** 0.5)];
+    const rows = labelRows(ms, grid, 700);
+    expect(ms.map((m) => rows.get(m))).toEqual([0, 1, 2, 0]);
+  });
+  it("puts a label that fits nowhere on the row that ends furthest left", () => {
+    const ms = [at(100, "a long label"), at(101, "b"), at(102, "c"), at(103, "d")];
+    const rows = labelRows(ms, grid, 700);
+    // rows 0 (long label), 1 (b), 2 (c) are all in the way; b's row ends first
+    expect(ms.map((m) => rows.get(m))).toEqual([0, 1, 2, 1]);
+  });
+  it("gives the figure room above the plot for every row it uses", () => {
+    const one = buildFigure([], [at(10)], Float64Array.of(1, 10, 1e6));
+    const three = buildFigure([], [at(100), at(101), at(102)], Float64Array.of(1, 10, 1e6));
+    const top = (fig: ReturnType<typeof buildFigure>) => (fig.layout.margin as { t: number }).t;
+    expect(top(three) - top(one)).toBe(22);
   });
 });
