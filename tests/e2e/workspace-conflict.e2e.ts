@@ -4,7 +4,7 @@ import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
 import { launchBrowser, newSession, screenshot } from "./support/browser";
 import { e2eContext } from "./support/context";
 import { findTemplate } from "../../lib/templates";
-import { selectCard, serverChain, typeInto, waitForSaveState } from "./workspace-support";
+import { selectCard, serverChain, typeInto, waitForPlot, waitForSaveState } from "./workspace-support";
 
 const ctx = e2eContext();
 const CHAIN = "Turbidity, conflict check";
@@ -42,9 +42,15 @@ describe.skipIf(ctx.skip !== null)("two people saving the same chain (production
     return id;
   }
 
+  /**
+   * Opens the chain and waits for its plot: loading the plotting library holds the page for a second or
+   * more on a slow machine, and an autosave timer that fires in the middle of someone's typing would
+   * split one edit into two saves.
+   */
   async function open(page: Page, id: string) {
     await page.goto(`/chains/${id}`);
     await page.getByTestId("workspace").waitFor();
+    await waitForPlot(page);
   }
 
   it("answers a stale save with the conflict choice, never a silent overwrite: load theirs, or keep mine as a copy", async () => {
