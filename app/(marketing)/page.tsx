@@ -15,8 +15,8 @@ const CHECKS = [
     body: "Resistor, amplifier and sensor noise carried to the ADC, compared with its quantisation noise, giving SNR and effective bits.",
   },
   {
-    title: "Spread and waveforms",
-    body: "Tolerance spread by Monte Carlo and worst-case corners; step responses and recorded waveforms run through the chain.",
+    title: "Next: spread and waveforms",
+    body: "Not in this version yet: tolerance spread by Monte Carlo and worst-case corners, and recorded waveforms run through the chain.",
   },
 ];
 
