@@ -62,9 +62,10 @@ export default function LandingPage() {
           For everyone around the design
         </h2>
         <p className="mt-2 text-graphite-700">
-          Reviewers see the margins and approve or ask for changes. Firmware gets the scaling from codes back to sensor
-          units, test engineers the expected voltage at every test point, purchasing a bill of materials in standard
-          values. The same analysis runs from the command line and the REST API.
+          Reviewers see the margins and approve or ask for changes, with comments on the chain and its whole history.
+          The same analysis runs from the command line and the REST API. Hand-offs for firmware (scaling from codes
+          back to sensor units), test (the expected voltage at each test point) and purchasing (a bill of materials
+          in standard values) are planned.
         </p>
       </section>
     </div>
