@@ -1,0 +1,117 @@
+import { describe, expect, it } from "vitest";
+import { contentSecurityPolicy, makeNonce, sameOriginProblem, staticSecurityHeaders } from "@/lib/security/headers";
+import { apiRoute, crossSiteRefusal } from "@/lib/api/handler";
+import { config as proxyConfig, proxy } from "@/proxy";
+import { NextRequest } from "next/server";
+
+function directives(policy: string): Map<string, string[]> {
+  return new Map(policy.split(";").map((d) => d.trim().split(/\s+/)).map(([name, ...values]) => [name, values]));
+}
+
+describe("makeNonce", () => {
+  it("gives 128 random bits as base64, different every time", () => {
+    const seen = new Set(Array.from({ length: 200 }, makeNonce));
+    expect(seen.size).toBe(200);
+    for (const n of seen) {
+      expect(n).toMatch(/^[A-Za-z0-9+/]{22}==$/);
+      expect(atob(n)).toHaveLength(16);
+    }
+  });
+});
+
+describe("contentSecurityPolicy", () => {
+  const prod = directives(contentSecurityPolicy("abc123==", { dev: false }));
+
+  it("allows scripts only by this response's nonce and what they load, never inline or eval in production", () => {
+    expect(prod.get("script-src")).toEqual(["'self'", "'nonce-abc123=='", "'strict-dynamic'"]);
+    expect(prod.get("script-src")).not.toContain("'unsafe-inline'");
+    expect(prod.get("script-src")).not.toContain("'unsafe-eval'");
+  });
+
+  it("forbids framing, plugins and foreign form targets; workers only from this origin", () => {
+    expect(prod.get("frame-ancestors")).toEqual(["'none'"]);
+    expect(prod.get("object-src")).toEqual(["'none'"]);
+    expect(prod.get("form-action")).toEqual(["'self'"]);
+    expect(prod.get("base-uri")).toEqual(["'self'"]);
+    expect(prod.get("worker-src")).toEqual(["'self'"]);
+    expect(prod.get("default-src")).toEqual(["'self'"]);
+    expect(prod.get("connect-src")).toEqual(["'self'"]);
+  });
+
+  it("adds eval and the reload socket only for next dev", () => {
+    const dev = directives(contentSecurityPolicy("n", { dev: true }));
+    expect(dev.get("script-src")).toContain("'unsafe-eval'");
+    expect(dev.get("connect-src")).toContain("ws:");
+  });
+});
+
+describe("staticSecurityHeaders", () => {
+  it("sets nosniff, a referrer policy, no framing, and HSTS in production only", () => {
+    const prod = Object.fromEntries(staticSecurityHeaders(true).map((h) => [h.key, h.value]));
+    expect(prod["X-Content-Type-Options"]).toBe("nosniff");
+    expect(prod["Referrer-Policy"]).toBe("strict-origin-when-cross-origin");
+    expect(prod["X-Frame-Options"]).toBe("DENY");
+    expect(prod["Strict-Transport-Security"]).toMatch(/^max-age=\d{7,}/);
+    expect(staticSecurityHeaders(false).map((h) => h.key)).not.toContain("Strict-Transport-Security");
+  });
+});
+
+describe("sameOriginProblem", () => {
+  const h = (o: Record<string, string>) => new Headers(o);
+  it("accepts the site's own pages and clients that are no browser", () => {
+    expect(sameOriginProblem(h({ host: "app.example:3000", origin: "https://app.example:3000", "sec-fetch-site": "same-origin" }))).toBeNull();
+    expect(sameOriginProblem(h({ host: "app.example" }))).toBeNull(); // curl, the CLI, the load test
+    expect(sameOriginProblem(h({ host: "internal:3000", "x-forwarded-host": "app.example", origin: "https://app.example" }))).toBeNull();
+    expect(sameOriginProblem(h({ host: "app.example", "sec-fetch-site": "none" }))).toBeNull(); // typed into the address bar
+  });
+  it("names what gave another site away", () => {
+    expect(sameOriginProblem(h({ host: "app.example", origin: "https://evil.example" }))).toMatch(/evil\.example/);
+    expect(sameOriginProblem(h({ host: "app.example", "sec-fetch-site": "cross-site" }))).toMatch(/cross-site/);
+    expect(sameOriginProblem(h({ host: "app.example", "sec-fetch-site": "same-site", origin: "https://app.example" }))).toMatch(/same-site/);
+    expect(sameOriginProblem(h({ host: "app.example", origin: "null" }))).toMatch(/null/);
+    expect(sameOriginProblem(h({ host: "app.example", origin: "https://app.example.evil.example" }))).not.toBeNull();
+  });
+});
+
+describe("apiRoute's same-origin check", () => {
+  const handler = apiRoute(async () => Response.json({ ran: true }));
+  const req = (method: string, headers: Record<string, string>) => new Request("http://app.example/api/x", { method, headers });
+
+  it("refuses a state-changing request from another site with 403 before the handler runs", async () => {
+    for (const method of ["POST", "PUT", "PATCH", "DELETE"]) {
+      const res = await handler(req(method, { host: "app.example", origin: "https://evil.example" }), undefined);
+      expect(res.status, method).toBe(403);
+      expect(await res.json()).toEqual({ error: expect.stringMatching(/another site/) });
+    }
+  });
+  it("lets reads through from anywhere (they change nothing) and writes from the same site", async () => {
+    expect((await handler(req("GET", { host: "app.example", origin: "https://evil.example" }), undefined)).status).toBe(200);
+    expect((await handler(req("POST", { host: "app.example", origin: "http://app.example" }), undefined)).status).toBe(200);
+    expect(crossSiteRefusal(req("POST", { host: "app.example" }))).toBeNull();
+  });
+});
+
+describe("proxy", () => {
+  it("puts a fresh policy with a new nonce on every page, on the response and for Next on the request", () => {
+    const a = proxy(new NextRequest("http://localhost/sign-in"));
+    const b = proxy(new NextRequest("http://localhost/sign-in"));
+    const pa = a.headers.get("content-security-policy")!;
+    expect(pa).toMatch(/script-src 'self' 'nonce-[^']+' 'strict-dynamic'/);
+    expect(pa).not.toBe(b.headers.get("content-security-policy"));
+    // NextResponse.next({ request: { headers } }) passes the changed request headers on like this
+    expect(a.headers.get("x-middleware-request-content-security-policy")).toBe(pa);
+    expect(a.headers.get("x-middleware-request-x-nonce")).toBe(pa.match(/'nonce-([^']+)'/)![1]);
+  });
+  it("still sends signed-out visitors of workspace pages to sign-in", () => {
+    const res = proxy(new NextRequest("http://localhost/chains/abc?x=1"));
+    expect(res.status).toBe(307);
+    expect(new URL(res.headers.get("location")!).searchParams.get("callbackUrl")).toBe("/chains/abc?x=1");
+    const signedIn = new NextRequest("http://localhost/chains", { headers: { cookie: "authjs.session-token=x" } });
+    expect(proxy(signedIn).headers.get("content-security-policy")).toBeTruthy();
+  });
+  it("runs on pages but not on route handlers or build files", () => {
+    const source = new RegExp(`^${proxyConfig.matcher[0].source.replace("/(", "/(")}$`);
+    for (const page of ["/", "/sign-in", "/chains/abc", "/mailbox", "/invitation/tok"]) expect(page, page).toMatch(source);
+    for (const other of ["/api/chains", "/_next/static/chunks/a.js", "/icon.svg"]) expect(other, other).not.toMatch(source);
+  });
+});
