@@ -14,6 +14,7 @@ import {
   uniqueIndex,
   type AnySQLiteColumn,
 } from "drizzle-orm/sqlite-core";
+import { CHAIN_ROLES, REVIEW_DECISIONS, REVIEW_STATES, TEAM_ROLES, WORST_STATUSES } from "../lib/domain";
 
 const newId = () => crypto.randomUUID();
 const now = () => new Date();
@@ -21,20 +22,10 @@ const now = () => new Date();
 /** created_at column in milliseconds, filled by the application (SQLite has no ms clock default). */
 const createdAt = () => integer("created_at", { mode: "timestamp_ms" }).notNull().$defaultFn(now);
 
-export const TEAM_ROLES = ["admin", "engineer", "reviewer"] as const;
-export type TeamRole = (typeof TEAM_ROLES)[number];
-
-export const CHAIN_ROLES = ["owner", "editor", "reviewer", "viewer"] as const;
-export type ChainRole = (typeof CHAIN_ROLES)[number];
-
-export const REVIEW_STATES = ["draft", "in-review", "changes-requested", "approved"] as const;
-export type ReviewState = (typeof REVIEW_STATES)[number];
-
-export const WORST_STATUSES = ["ok", "tight", "clip"] as const;
-export type WorstStatus = (typeof WORST_STATUSES)[number];
-
-export const REVIEW_DECISIONS = ["pending", "approved", "changes-requested"] as const;
-export type ReviewDecision = (typeof REVIEW_DECISIONS)[number];
+// The domain enums live in lib/domain.ts so client code can use them without importing db/; the
+// re-export keeps `import { TEAM_ROLES } from "@/db/schema"` working for server code.
+export { CHAIN_ROLES, REVIEW_DECISIONS, REVIEW_STATES, TEAM_ROLES, WORST_STATUSES } from "../lib/domain";
+export type { ChainRole, ReviewDecision, ReviewState, TeamRole, WorstStatus } from "../lib/domain";
 
 // ---------------------------------------------------------------------------
 // Auth.js tables

@@ -1,4 +1,4 @@
-import type { ChainRole, ReviewState, WorstStatus } from "@/db/schema";
+import type { ChainRole, ReviewState, WorstStatus } from "@/lib/domain";
 import { StatusMark } from "@/components/ui/status-mark";
 
 export interface ChainListRow {

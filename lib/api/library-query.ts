@@ -1,7 +1,7 @@
 import "server-only";
 import { z } from "zod";
 import { LIBRARY_SORTS, defaultLibraryDir, type LibraryQuery } from "@/db/queries/library";
-import { REVIEW_STATES, WORST_STATUSES } from "@/db/schema";
+import { REVIEW_STATES, WORST_STATUSES } from "@/lib/domain";
 
 /**
  * What each filter of the chains library may hold. The library page reads these from its address

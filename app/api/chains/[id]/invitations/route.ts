@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { listPendingInvitations } from "@/db/queries/invitations";
-import { CHAIN_ROLES } from "@/db/schema";
+import { CHAIN_ROLES } from "@/lib/domain";
 import { apiRoute } from "@/lib/api/handler";
 import { parseBody } from "@/lib/api/validate";
 import { requireChain } from "@/lib/auth/guard";

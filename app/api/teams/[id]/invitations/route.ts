@@ -2,7 +2,7 @@ import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { listPendingInvitations } from "@/db/queries/invitations";
 import { getTeam } from "@/db/queries/team-admin";
-import { TEAM_ROLES } from "@/db/schema";
+import { TEAM_ROLES } from "@/lib/domain";
 import { apiRoute } from "@/lib/api/handler";
 import { parseBody } from "@/lib/api/validate";
 import { requireTeam } from "@/lib/auth/guard";

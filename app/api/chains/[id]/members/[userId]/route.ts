@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { changeChainShare, listChainMembers } from "@/db/queries/sharing";
-import { CHAIN_ROLES } from "@/db/schema";
+import { CHAIN_ROLES } from "@/lib/domain";
 import { ApiError } from "@/lib/api/errors";
 import { apiRoute } from "@/lib/api/handler";
 import { parseBody } from "@/lib/api/validate";

@@ -2,7 +2,7 @@ import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { listTeamPeople } from "@/db/queries/sharing";
 import { changeTeamMember } from "@/db/queries/team-admin";
-import { TEAM_ROLES } from "@/db/schema";
+import { TEAM_ROLES } from "@/lib/domain";
 import { ApiError } from "@/lib/api/errors";
 import { apiRoute } from "@/lib/api/handler";
 import { parseBody } from "@/lib/api/validate";
