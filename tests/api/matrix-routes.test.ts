@@ -1,8 +1,14 @@
 /**
- * The authorisation matrix of issue 5: every route of the team features (and the chain routes they
- * extend) against every position a person can hold, asserting the status code and that nothing leaks
- * in the body: never another team's chain name, never an address of someone outside the chain and
- * its team, and for a refusal nothing of the chain at all.
+ * The authorisation matrix: every route handler in app/ against every position a person can hold,
+ * asserting the status code and that nothing leaks in the body: never another team's chain name,
+ * never an address of someone outside the chain and its team, and for a refusal nothing of the chain
+ * at all. The routes are read from the app folder (tests/support/app-surface.ts): a route without a
+ * row here fails the first test, which says what to add. Server actions have their own sweep in
+ * matrix-actions.test.ts.
+ *
+ * Adding a row: `name` starts with "METHOD /path/:param" exactly as the first test prints it (a
+ * note in parentheses may follow), `expect` lists the eight statuses in ROLES order, and `call`
+ * builds the request against the world of tests/support/team-world.ts.
  */
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { idContext, jsonRequest, paramsContext, sessionModule, signInAs } from "./session-mock";
@@ -37,11 +43,15 @@ import * as importRoute from "@/app/api/parts/import/route";
 import * as exportRoute from "@/app/api/parts/export/route";
 import * as invitationRoute from "@/app/api/invitations/[token]/route";
 import * as acceptRoute from "@/app/api/invitations/[token]/accept/route";
+import * as analyzeRoute from "@/app/api/analyze/route";
+import * as mailboxRoute from "@/app/api/mailbox/route";
 import { getChainRow } from "@/db/queries/chains";
 import { createInvitation } from "@/db/queries/invitations";
 import type { User } from "@/db/schema";
 import { teamWorld, type TeamWorld } from "../support/team-world";
 import { useTempDatabase } from "../support/temp-db";
+import { appRoutes, importProjectModule } from "../support/app-surface";
+import { hullVibration } from "@/db/seed-data/chains";
 
 const ROLES = ["owner", "editor", "reviewer", "viewer", "member", "admin", "other", "signedOut"] as const;
 type Role = (typeof ROLES)[number];
@@ -74,6 +84,12 @@ const COMMENT = "201 201 201 403 403 201 404 401";
 const TEAM_VIEW = "200 200 200 404 200 200 404 401";
 const TEAM_MANAGE = "403 403 403 404 403 200 404 401";
 const PARTS_EDIT = "200 200 403 404 200 200 404 401";
+
+/** Routes that are not in the matrix, each with the reason and where it is tested instead. */
+const NOT_IN_MATRIX: Record<string, string> = {
+  "GET /api/auth/*nextauth": "Auth.js's own handler (sign-in pages, session, CSRF token); tests/e2e/sign-in.e2e.ts and tests/unit/auth-config.test.ts",
+  "POST /api/auth/*nextauth": "Auth.js's own handler (checks its CSRF token, then the same-origin check); tests/e2e/sign-in.e2e.ts, tests/unit/security-headers.test.ts",
+};
 
 const ROUTES: RouteCase[] = [
   { name: "GET /api/chains", expect: "200 200 200 200 200 200 200 401", call: () => ({ handler: h(chainsRoute.GET), request: jsonRequest("GET", "/api/chains"), context: undefined }) },
@@ -249,7 +265,20 @@ const ROUTES: RouteCase[] = [
       return { handler: h(acceptRoute.POST), request: jsonRequest("POST", "/x"), context: paramsContext({ token }) };
     },
   },
+  {
+    name: "POST /api/analyze",
+    expect: "200 200 200 200 200 200 200 401",
+    call: () => ({ handler: h(analyzeRoute.POST), request: jsonRequest("POST", "/api/analyze", { chain: hullVibration, points: 20 }), context: undefined }),
+  },
+  {
+    name: "GET /api/mailbox (stand-in switched off)",
+    expect: "404 404 404 404 404 404 404 404",
+    call: () => ({ handler: h(mailboxRoute.GET), request: jsonRequest("GET", "/api/mailbox"), context: undefined }),
+  },
 ];
+
+/** The route a row is for: its name up to the first note in parentheses. */
+const routeOf = (row: RouteCase) => row.name.replace(/\s*\(.*$/, "").trim();
 
 function personFor(w: TeamWorld, role: Role): User | null {
   return role === "signedOut" ? null : w[role];
@@ -262,9 +291,28 @@ beforeAll(() => {
 afterAll(() => tmp.cleanup());
 
 describe("authorisation matrix: every route × every position", () => {
-  it("covers every route of the team features with a row of eight expectations", () => {
-    for (const r of ROUTES) expect(r.expect.split(" "), r.name).toHaveLength(ROLES.length);
-    expect(ROUTES.length * ROLES.length).toBeGreaterThanOrEqual(360);
+  it("has a row for every route handler in app/, and no row for a route that is gone", () => {
+    const found = appRoutes();
+    const covered = new Set(ROUTES.map(routeOf));
+    const missing = found.filter((r) => !covered.has(r.key) && !(r.key in NOT_IN_MATRIX));
+    const message = missing
+      .map((r) => `  ${r.key}   (export ${r.method} of ${r.file}): add { name: "${r.key}", expect: "<8 statuses: ${ROLES.join(" ")}>", call: … } to ROUTES`)
+      .join("\n");
+    expect(missing.map((r) => r.key), `routes without a row in tests/api/matrix-routes.test.ts:\n${message}`).toEqual([]);
+    const known = new Set(found.map((r) => r.key));
+    const stale = [...covered, ...Object.keys(NOT_IN_MATRIX)].filter((k) => !known.has(k));
+    expect(stale, `rows naming a route that app/ no longer has (or a misspelt name; routes are named like "PATCH /api/chains/:id")`).toEqual([]);
+    for (const r of ROUTES) expect(r.expect.split(" "), `${r.name}: one status per position (${ROLES.join(" ")})`).toHaveLength(ROLES.length);
+  });
+
+  it("calls, in each row, the very handler its name says", async () => {
+    const w = teamWorld();
+    const byKey = new Map(appRoutes().map((r) => [r.key, r]));
+    for (const row of ROUTES) {
+      const entry = byKey.get(routeOf(row))!;
+      const mod = await importProjectModule(entry.file);
+      expect(row.call(w, w.owner).handler, `${row.name} should call export ${entry.method} of ${entry.file}`).toBe(mod[entry.method]);
+    }
   });
 
   for (const route of ROUTES) {
