@@ -11,3 +11,5 @@ export type { IdealCharacteristics } from "./ideal";
 export { referenceResponse, referenceTransfer } from "./reference-path";
 export { toMagnitudePhase } from "./response";
 export { BOLTZMANN } from "./constants";
+export { solveStage, figuresOf, sensitivities, isSolvableKind, SOLVE_TARGETS, SOLVED_PARAMS } from "./solve";
+export type { SolvableKind, SolveTargets, SolveResult, SolvedSet, SolvedParams, Figures, TargetName } from "./solve";
