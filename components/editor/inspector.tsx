@@ -12,7 +12,7 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import { useForm, useWatch, type Path } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { Safety } from "@/lib/chain/types";
-import { crossParamIssues, SAFETY_VALUES } from "@/lib/chain/params";
+import { crossParamIssues, SAFETY_VALUES, SOURCE_UNIT_LENGTH } from "@/lib/chain/params";
 import { useEditor, useEditorActions } from "@/lib/store/editor-context";
 import { STAGE_CATALOG, paramRule, paramUnit } from "@/lib/store/stage-catalog";
 import type { DraftNode, ParamValue } from "@/lib/store/draft";
@@ -176,6 +176,8 @@ function NodeSheet({ node, readOnly }: { node: DraftNode; readOnly: boolean }) {
             );
           })}
 
+          {node.kind === "source" && <SourceUnitField node={node} />}
+
           {node.kind === "source" && (
             <div className="grid grid-cols-[5.5rem_1fr] items-center gap-x-2">
               <label htmlFor="f-safety" className="text-[12.5px] text-graphite-700">
@@ -235,6 +237,27 @@ function NodeSheet({ node, readOnly }: { node: DraftNode; readOnly: boolean }) {
       </form>
       {spec.opAmp && partsOpen && <PartsPanel readOnly={readOnly} focusKey={node.part ?? null} />}
       <StageNumbers node={node} />
+    </div>
+  );
+}
+
+/** The measurand's unit name ("kg", "°C"): free text, stored as typed (an empty field removes it). */
+function SourceUnitField({ node }: { node: DraftNode }) {
+  const actions = useEditorActions();
+  const stored = typeof node.params.unit === "string" ? node.params.unit : "";
+  return (
+    <div className="grid grid-cols-[5.5rem_1fr] items-center gap-x-2">
+      <label htmlFor="f-unit" className="text-[12.5px] text-graphite-700">
+        Unit
+      </label>
+      <input
+        id="f-unit"
+        value={stored}
+        maxLength={SOURCE_UNIT_LENGTH}
+        placeholder="of the measurand, e.g. kg"
+        onChange={(e) => actions.setParam(node.id, "unit", e.target.value === "" ? undefined : e.target.value)}
+        className="w-full min-w-0 rounded-card border border-paper-rule bg-paper-raised px-2 py-1 text-[13px] focus:border-accent-600 focus:outline-none"
+      />
     </div>
   );
 }

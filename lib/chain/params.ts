@@ -11,11 +11,16 @@ export interface ParamSpec {
   rule?: NumberRule;
   /** word params (the source's safety) */
   words?: readonly string[];
+  /** free-text params (the source's unit), up to this many characters */
+  maxLength?: number;
   /** required in a complete chain (a draft may leave any param out) */
   required: boolean;
-  /** filled in when absent from a complete chain */
+  /** filled in when absent from a complete chain; with none, an optional param stays absent */
   default?: number | string | null;
 }
+
+/** Longest unit name a source may give (`unit`, e.g. "kg", "°C", "m/s²"). */
+export const SOURCE_UNIT_LENGTH = 16;
 
 export const SAFETY_VALUES: readonly Safety[] = ["low-voltage", "mains-connected", "body-connected"];
 
@@ -35,6 +40,9 @@ export const PARAM_SPECS: Readonly<Record<NodeKind, Readonly<Record<string, Para
     resistance: opt({ unit: "ohm", bound: "nonNegative" }, 0),
     noiseDensity: opt({ unit: "V/√Hz", bound: "nonNegative" }, 0),
     safety: { words: SAFETY_VALUES, required: false, default: "low-voltage" },
+    // Absent, null (sensitivity) or "" (unit) all mean none declared; the schema fills in nothing.
+    sensitivity: { rule: { ...VOLTS, note: "per unit of the measurand, not 0", nullMeans: "no declared sensitivity" }, required: false },
+    unit: { maxLength: SOURCE_UNIT_LENGTH, required: false },
   },
   inverting: { r1: req(OHMS), r2: req(OHMS), vref: VREF },
   noninverting: {
@@ -95,6 +103,9 @@ export function crossParamIssues(kind: NodeKind, params: Record<string, unknown>
     if (typeof a === "number" && typeof b === "number" && Number.isFinite(a) && Number.isFinite(b) && !(a < b)) {
       out.push({ key: hi, message: `must be above ${lo} (${hi} is ${b} ${unit}, ${lo} is ${a} ${unit})` });
     }
+  }
+  if (kind === "source" && params.sensitivity === 0) {
+    out.push({ key: "sensitivity", message: "must not be 0: give the volts per unit of the measurand, or null for none" });
   }
   if (complete && kind === "noninverting" && typeof params.rg === "number" && (params.rf === null || params.rf === undefined)) {
     out.push({

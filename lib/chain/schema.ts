@@ -185,11 +185,15 @@ const railsSchema = strictObject(
 function paramField(spec: ParamSpec, level: Level) {
   const base = spec.words
     ? oneOf(spec.words)
-    : spec.rule!.nullMeans
+    : spec.maxLength !== undefined
+      ? text("text", 0, spec.maxLength)
+      : spec.rule!.nullMeans
       ? numOrNull({ ...spec.rule!, nullMeans: spec.rule!.nullMeans })
       : num(spec.rule!);
   if (level === "draft") return base.optional();
-  return spec.required ? base : (base as z.ZodType<unknown>).default(spec.default as never);
+  if (spec.required) return base;
+  // No default: the param stays absent when left out (the source's sensitivity and unit).
+  return spec.default === undefined ? base.optional() : (base as z.ZodType<unknown>).default(spec.default as never);
 }
 
 function paramsSchema(kind: NodeKind, level: Level) {

@@ -76,6 +76,13 @@ export interface SourceParams {
   resistance: number;
   noiseDensity: number;
   safety: Safety;
+  /**
+   * Volts at the source output per unit of the measurand (V/kg, V/°C); absent or null = none declared
+   * (the schema fills in no default, so older documents come back unchanged).
+   */
+  sensitivity?: number | null;
+  /** Short name of the measurand's unit ("kg", "°C", "lx"), up to 16 characters; absent or "" = none. */
+  unit?: string;
 }
 export interface InvertingParams { r1: number; r2: number; vref: number }
 export interface NonInvertingParams { rf: number | null; rg: number | null; vref: number }

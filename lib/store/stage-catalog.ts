@@ -52,6 +52,7 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
       { key: "fHigh", label: "Band high" },
       { key: "resistance", label: "Resistance" },
       { key: "noiseDensity", label: "Noise density" },
+      { key: "sensitivity", label: "Sensitivity (V per unit)" },
     ],
     starter: { dc: 0, amplitude: 0.1, fLow: 1, fHigh: 1000, safety: "low-voltage" },
     cardFields: [["dc", "dc"], ["amplitude", "peak"], ["fLow", "fLow"], ["fHigh", "fHigh"]],
