@@ -13,3 +13,5 @@ export { toMagnitudePhase } from "./response";
 export { BOLTZMANN } from "./constants";
 export { solveStage, figuresOf, sensitivities, isSolvableKind, SOLVE_TARGETS, SOLVED_PARAMS } from "./solve";
 export type { SolvableKind, SolveTargets, SolveResult, SolvedSet, SolvedParams, Figures, TargetName } from "./solve";
+export { designLowpass, prototypeSections, prototypePoles, prototypeMagnitude, FILTER_RESPONSES, SECTION_ORDER_RULE } from "./filter-design";
+export type { FilterResponse, LowpassSpec, LowpassDesign, DesignedSection, PrototypeSection, SecondOrderKind } from "./filter-design";

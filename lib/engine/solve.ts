@@ -296,11 +296,35 @@ export function seriesValues(series: ESeries, lo: number, hi: number): number[] 
   return out;
 }
 
-/** The one or two series values next to x. */
+/** Every value of a series from 1e-15 to 1e15, ascending, built as lib/units does (4.7e3 is exactly 4700). */
+const tables = new Map<ESeries, number[]>();
+function table(series: ESeries): number[] {
+  let t = tables.get(series);
+  if (!t) {
+    t = [];
+    for (let d = -15; d <= 15; d++) for (const m of E_SERIES[series]) t.push(Number(`${m}e${d}`));
+    tables.set(series, t);
+  }
+  return t;
+}
+
+/** The one or two series values next to x (the same as lib/units `neighbours`, by binary search). */
 function snaps(x: number, series: ESeries): number[] {
   if (!(x > 0 && Number.isFinite(x))) return [];
-  const { below, above } = neighbours(x, series);
-  return below === above ? [below] : [below, above];
+  const t = table(series);
+  if (x < t[0] || x > t[t.length - 1]) {
+    const { below, above } = neighbours(x, series);
+    return below === above ? [below] : [below, above];
+  }
+  let lo = 0;
+  let hi = t.length - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (t[mid] <= x) lo = mid;
+    else hi = mid;
+  }
+  for (const i of [lo, hi]) if (Math.abs(t[i] - x) <= 1e-12 * x) return [t[i]];
+  return [t[lo], t[hi]];
 }
 
 /** Every combination of one choice per key. */
@@ -377,9 +401,15 @@ function rankKey(s: SolvedSet): [number, number, number, number] {
   const maxR = Math.max(0, ...Object.entries(s.params).filter(([k, v]) => k.startsWith("r") && v != null).map(([, v]) => v as number));
   return [s.meets ? 0 : 1, Math.ceil(s.worstError / ERROR_STEP - 1e-9), s.sensitivityTotal, maxR];
 }
+const rankCache = new WeakMap<SolvedSet, [number, number, number, number]>();
+function cachedKey(s: SolvedSet) {
+  let k = rankCache.get(s);
+  if (!k) rankCache.set(s, (k = rankKey(s)));
+  return k;
+}
 function compareSets(a: SolvedSet, b: SolvedSet): number {
-  const ka = rankKey(a);
-  const kb = rankKey(b);
+  const ka = cachedKey(a);
+  const kb = cachedKey(b);
   for (let i = 0; i < ka.length; i++) {
     const d = ka[i] - kb[i];
     if (Math.abs(d) > 1e-9) return d;
@@ -402,7 +432,7 @@ function evaluateSet(kind: SolvableKind, t: ResolvedTargets, params: SolvedParam
   }
   const meets = worst <= t.tolerance * (1 + 1e-9);
   const set: SolvedSet = { params, achieved, errors, worstError: worst, sensitivity: {}, sensitivityTotal: 0, meets };
-  return meets ? withSensitivity(kind, set) : set;
+  return set;
 }
 
 function withSensitivity(kind: SolvableKind, set: SolvedSet): SolvedSet {
@@ -479,9 +509,16 @@ export function solveStage(kind: SolvableKind, targets: SolveTargets): SolveResu
     }
     inRange.push(set);
   }
+  // Sensitivities only where they can decide the ranking: the meeting sets of the best error steps, until
+  // those steps hold `limit` sets (ranking is by error step first, so later steps cannot move up).
   inRange.sort(compareSets);
+  const meeting = inRange.filter((s) => s.meets);
+  let upTo = 0;
+  while (upTo < meeting.length && (upTo < t.limit || rankKey(meeting[upTo])[1] === rankKey(meeting[upTo - 1])[1])) upTo++;
+  const ranked = meeting.slice(0, upTo).map((s) => withSensitivity(kind, s));
+  ranked.sort(compareSets);
   const withZ = (s: SolvedSet): SolvedSet => ({ ...s, achieved: { ...s.achieved, inputImpedance: inputImpedance(kind, s.params) } });
-  const sets = inRange.filter((s) => s.meets).slice(0, t.limit).map(withZ);
+  const sets = ranked.slice(0, t.limit).map(withZ);
   if (sets.length) return result(null, sets, [], evaluated);
   if (inRange.length) {
     const best = inRange[0];
