@@ -108,13 +108,42 @@ const analysisSchema = strictObject(
 });
 
 const fraction: NumberRule = { unit: "fraction", bound: "nonNegative", range: { min: 0, max: 0.5 } };
+/** "nodeId.param" of a per-part tolerance (the param is checked against the node in overrideIssues) */
+const OVERRIDE_KEY = /^[A-Za-z0-9_-]{1,32}\.[A-Za-z0-9]{1,32}$/;
+const overridesSchema = checked<Record<string, unknown>>((v) =>
+  isPlainObject(v) ? null : `must be an object of per-part tolerances keyed "nodeId.param" (found ${describeFound(v)})`,
+)
+  .superRefine((o, ctx) => {
+    for (const key of Object.keys(o)) {
+      if (!OVERRIDE_KEY.test(key)) ctx.addIssue({ code: "custom", path: [key], message: 'is not a part key: write "nodeId.param", e.g. "u1.r1"' });
+    }
+  })
+  .pipe(z.record(z.string(), num(fraction)));
 const tolerancesSchema = strictObject(
   {
     resistor: num(fraction).default(DEFAULT_TOLERANCES.resistor),
     capacitor: num(fraction).default(DEFAULT_TOLERANCES.capacitor),
+    overrides: overridesSchema.optional(),
   },
   "an object of tolerances",
 );
+
+/** Each per-part tolerance must name a resistor or capacitor param of a node of the chain. */
+function overrideIssues(doc: { tolerances?: { overrides?: Record<string, unknown> }; nodes?: unknown }): ChainIssue[] {
+  const o = doc.tolerances?.overrides;
+  if (!o || !Array.isArray(doc.nodes)) return [];
+  const out: ChainIssue[] = [];
+  for (const key of Object.keys(o)) {
+    const [id, param] = key.split(".");
+    const node = (doc.nodes as { id?: unknown; kind?: unknown }[]).find((n) => n && n.id === id);
+    const kind = node && (NODE_KINDS as readonly unknown[]).includes(node.kind) ? (node.kind as NodeKind) : null;
+    const unit = kind ? PARAM_SPECS[kind][param]?.rule?.unit : undefined;
+    if (!node) out.push({ path: `tolerances.overrides.${key}`, message: `names node "${id}", which the chain does not have` });
+    else if (unit !== "ohm" && unit !== "farad")
+      out.push({ path: `tolerances.overrides.${key}`, message: `names "${param}", which is not a resistor or capacitor of ${id}` });
+  }
+  return out;
+}
 
 const nonNeg = (unit: NumberRule["unit"], note?: string): NumberRule => ({ unit, bound: "nonNegative", note });
 
@@ -281,6 +310,7 @@ function documentSchema(level: Level) {
   ).superRefine(
     (doc, ctx) => {
       for (const issue of graphIssues(doc, level)) ctx.addIssue({ code: "custom", path: issue.path, message: issue.message });
+      for (const issue of overrideIssues(doc)) ctx.addIssue({ code: "custom", path: ["tolerances", "overrides", issue.path.slice(21)], message: issue.message });
     },
     // Graph rules are reported alongside field errors, not only once every field is right.
     { when: () => true },
@@ -431,7 +461,7 @@ function container(parent: readonly PropertyKey[], input: unknown): { what: stri
   };
   if (p.length === 0) return { what: "a chain document", keys: [...TOP_KEYS] };
   if (p.length === 1 && p[0] === "analysis") return { what: "the analysis settings", keys: ANALYSIS_KEYS };
-  if (p.length === 1 && p[0] === "tolerances") return { what: "the tolerances", keys: ["resistor", "capacitor"] };
+  if (p.length === 1 && p[0] === "tolerances") return { what: "the tolerances", keys: ["resistor", "capacitor", "overrides"] };
   if (p.length === 2 && p[0] === "parts") return { what: "an op-amp part", keys: PART_KEYS };
   if (p.length === 2 && p[0] === "edges") return { what: "an edge", keys: ["from", "to"] };
   if (p[0] !== "nodes") return null;

@@ -26,6 +26,11 @@ export interface AnalysisSettings {
 export interface Tolerances {
   resistor: number;
   capacitor: number;
+  /**
+   * Optional per-part tolerances by "nodeId.param" (e.g. "u1.r1": 0.001), each a fraction in [0, 0.5];
+   * used by the tolerance spread instead of `resistor` / `capacitor`. Absent = none.
+   */
+  overrides?: Record<string, number>;
 }
 
 /** An op-amp model. Every field optional: missing means ideal in that respect. */

@@ -116,7 +116,7 @@ function checkRange(
   };
 }
 
-interface NodeFigures {
+export interface NodeFigures {
   gain: number | null; // max |H_src→node| over the source band
   slope: number | null; // max 2πf·|H| over the band, 1/s
   plusGain: number | null; // max |H_src→(+)| over the band
@@ -125,9 +125,10 @@ interface NodeFigures {
 /**
  * Band maxima of every node's response (and op-amp (+) pins) over the source band: dense samples, then
  * every node's golden-section refinements side by side (bandMaxMany), one sweep of the chain per step
- * for all of them instead of one per point.
+ * for all of them instead of one per point. `tol` stops the refinement earlier (the tolerance spread
+ * uses 1e-6: near a smooth maximum the value is then within about 1e-12 of the true peak).
  */
-function bandFigures(cc: CompiledChain, fLow: number, fHigh: number): NodeFigures[] {
+export function bandFigures(cc: CompiledChain, fLow: number, fHigh: number, tol?: number): NodeFigures[] {
   const grid = bandGrid(fLow, fHigh);
   const sw = cc.sweep(grid);
   const mag = (r: SweepResult, i: number, k: number) => Math.hypot(r.cumRe[i][k], r.cumIm[i][k]);
@@ -168,7 +169,7 @@ function bandFigures(cc: CompiledChain, fLow: number, fHigh: number): NodeFigure
       else if (s.what === 1) out[c] = TWO_PI * f * mag(step, s.node, c);
       else out[c] = mag(step, cc.topology.parent[s.node], c) * plusRatio(s.node, f);
     }
-  });
+  }, tol);
   const out: NodeFigures[] = Array.from({ length: n }, () => ({ gain: null, slope: null, plusGain: null }));
   searches.forEach((s, j) => {
     const v = finite(peaks[j].value);

@@ -67,7 +67,12 @@ class GoldenSearch {
   private wantX1 = false;
   private static readonly G = (Math.sqrt(5) - 1) / 2;
 
-  constructor(grid: Float64Array, values: ArrayLike<number>) {
+  /** `tol`: the bracket (in ln f, relative) at which the search stops; 1e-10 unless told */
+  constructor(
+    grid: Float64Array,
+    values: ArrayLike<number>,
+    private readonly tol = 1e-10,
+  ) {
     let best = 0;
     for (let i = 0; i < grid.length; i++) {
       const v = values[i];
@@ -105,7 +110,7 @@ class GoldenSearch {
       case 1:
         return Math.exp(this.x2);
       case 2:
-        if (!(this.it < 80 && this.b - this.a > 1e-10 * Math.max(1, Math.abs(this.a)))) {
+        if (!(this.it < 80 && this.b - this.a > this.tol * Math.max(1, Math.abs(this.a)))) {
           this.finish();
           return null;
         }
@@ -180,8 +185,10 @@ export function bandMax(grid: Float64Array, values: ArrayLike<number>, fn: (f: n
 export function bandMaxMany(
   searches: { grid: Float64Array; values: ArrayLike<number> }[],
   evaluate: (freqs: Float64Array, which: Int32Array, out: Float64Array, count: number) => void,
+  /** bracket at which each search stops (ln f, relative); the default 1e-10 is what analyzeChain uses */
+  tol?: number,
 ): BandPeak[] {
-  const list = searches.map((s) => new GoldenSearch(s.grid, s.values));
+  const list = searches.map((s) => new GoldenSearch(s.grid, s.values, tol));
   const freqs = new Float64Array(list.length);
   const which = new Int32Array(list.length);
   const out = new Float64Array(list.length);
