@@ -503,7 +503,7 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
   const sensDown: Figures[] = [];
   let corners: { nodeIndex: number; metric: SpreadMetric; signs: Int8Array; low: number; high: number; outside: number }[] = [];
   let cornerPlan: { nodeIndex: number; metric: SpreadMetric; signs: Int8Array }[] | null = null;
-  let cornerVals: { low: number; high: number }[] = [];
+  const cornerVals: { low: number; high: number }[] = [];
   let sensitivity: SpreadSensitivity[] = [];
   let critical = -1;
 
