@@ -189,7 +189,7 @@ describe("headroom over builds", () => {
       if (!mine.length) return n;
       const params = { ...n.params } as Record<string, number>;
       for (const p of mine) params[p.param] = p.nominal * (1 + wc.lowCorner[p.key] * p.tolerance);
-      return { ...n, params } as typeof n;
+      return { ...n, params } as unknown as typeof n;
     });
     const a = analyzeChain({ ...chain, nodes });
     const st = a.paths[0].stages.find((s) => s.id === "g2")!;
