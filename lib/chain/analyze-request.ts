@@ -62,7 +62,8 @@ export function runAnalysis(input: unknown, analyze: Analyzer = analyzeChain): A
   const errors: ChainIssue[] = [];
   for (const key of Object.keys(body)) {
     if (!REQUEST_KEYS.includes(key)) {
-      errors.push({ path: key, message: `is not a field of an analysis request; the fields are ${REQUEST_KEYS.join(", ")}` });
+      // an empty key still needs a visible name in the error
+      errors.push({ path: key === "" ? '[""]' : key, message: `is not a field of an analysis request; the fields are ${REQUEST_KEYS.join(", ")}` });
     }
   }
   const options = checkOptions(body.freqs, body.points);
@@ -73,7 +74,8 @@ export function runAnalysis(input: unknown, analyze: Analyzer = analyzeChain): A
   } else {
     const v = validateChain(body.chain);
     if (v.ok) chain = v.chain;
-    else errors.push(...v.errors);
+    // a problem with the document as a whole (not an object, too deep) is the `chain` field's
+    else errors.push(...v.errors.map((e) => (e.path ? e : { ...e, path: "chain" })));
   }
   if (errors.length || !chain || !options.ok) return { ok: false, errors };
   return { ok: true, result: analyze(chain, options.opts) };

@@ -33,7 +33,8 @@ export function bandGrid(lo: number, hi: number, perDecade = PEAK_POINTS_PER_DEC
     out.set(g, 1);
     return out;
   }
-  const decades = Math.log10(hi / lo);
+  // the difference of logs, not log of the ratio: hi/lo overflows to Infinity for a subnormal lo (found by tests/fuzz)
+  const decades = Math.log10(hi) - Math.log10(lo);
   return logGrid(lo, hi, Math.max(33, Math.ceil(decades * perDecade) + 1));
 }
 

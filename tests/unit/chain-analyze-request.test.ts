@@ -48,6 +48,15 @@ describe("runAnalysis", () => {
     expect(!missing.ok && missing.errors).toEqual([{ path: "chain", message: expect.stringMatching(/^is required/) }]);
   });
 
+  // both found by tests/fuzz: an error must name a field even when the field is the whole chain or an empty key
+  it("names the chain field when the chain is not a document, and an empty key as [\"\"]", () => {
+    const { analyze } = recorder();
+    const notDocument = runAnalysis({ chain: 0 }, analyze);
+    expect(!notDocument.ok && notDocument.errors.map((e) => e.path)).toEqual(["chain"]);
+    const emptyKey = runAnalysis({ chain: exampleChain(), "": false }, analyze);
+    expect(!emptyKey.ok && emptyKey.errors.map((e) => e.path)).toEqual(['[""]']);
+  });
+
   it("runs the real engine on the chain-format.md example", () => {
     const r = runAnalysis({ chain: exampleChain(), freqs: [10, 1000] });
     if (!r.ok) throw new Error(JSON.stringify(r.errors));

@@ -28,6 +28,15 @@ describe("bandGrid", () => {
   it("is a single point for an empty band", () => {
     expect(Array.from(bandGrid(5, 5))).toEqual([5]);
   });
+  it("spans a band from a subnormal lower limit without overflowing (found by tests/fuzz)", () => {
+    const g = bandGrid(5e-324, 200);
+    // log10(200) − log10(5e-324) ≈ 325.6 decades at 96 per decade
+    expect(g.length).toBe(Math.ceil((Math.log10(200) - Math.log10(5e-324)) * 96) + 1);
+    expect(g[0]).toBe(5e-324);
+    expect(g[g.length - 1]).toBe(200);
+    // non-decreasing (subnormals are too coarse to step by 10^(1/96) near the bottom), all finite
+    expect(g.every((f, i) => Number.isFinite(f) && (i === 0 || f >= g[i - 1]))).toBe(true);
+  });
 });
 
 describe("bandMax", () => {
