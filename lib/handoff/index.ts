@@ -1,0 +1,13 @@
+/**
+ * Hand-offs built from a complete chain and its engine result: bill of materials, bring-up sheet,
+ * firmware scaling, CSV of each. Pure (no React, no I/O); the routes and pages only serve them.
+ */
+export { buildBom, seriesForTolerance } from "./bom";
+export type { Bom, BomGroup, BomLine, OpAmpGroup } from "./bom";
+export { buildBringUpSheet, defaultTestFrequencies, nominalOf, TEST_FREQUENCY_LIMIT } from "./bring-up";
+export type { BringUpSheet, TestPoint, TestPointAc } from "./bring-up";
+export { buildFirmwareScaling, codeOf, measurandOf, scalingHeader, sourceVoltsOf, SCALING_FORMAT } from "./firmware";
+export type { FirmwareScaling, ScalingResult } from "./firmware";
+export { bomCsv, bomGroupsCsv, bringUpCsv, plotCsv, PLOT_TABLES, toCsv } from "./csv";
+export type { PlotTable } from "./csv";
+export { signalOrder } from "./order";

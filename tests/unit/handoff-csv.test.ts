@@ -1,0 +1,69 @@
+/**
+ * CSV of the hand-offs: read back with the same CSV parser, every number equals the builder's (so
+ * nothing is lost to formatting), and text that starts like a spreadsheet formula is escaped.
+ */
+import Papa from "papaparse";
+import { describe, expect, it } from "vitest";
+import { analyzeChain } from "@/lib/engine";
+import { bomCsv, bomGroupsCsv, bringUpCsv, buildBom, buildBringUpSheet, plotCsv } from "@/lib/handoff";
+import { demo } from "./handoff-support";
+
+const read = (csv: string) => Papa.parse<Record<string, string>>(csv.trim(), { header: true }).data;
+
+describe("hand-off CSV", () => {
+  it("BOM lines read back with exact values and one line per op-amp", () => {
+    const { turbidity } = demo();
+    const bom = buildBom(turbidity);
+    const rows = read(bomCsv(bom));
+    expect(rows).toHaveLength(bom.lines.length + 2);
+    bom.lines.forEach((l, k) => {
+      expect(rows[k].ref).toBe(l.ref);
+      expect(Number(rows[k].value)).toBe(l.value);
+      expect(Number(rows[k].nearest_standard)).toBe(l.standard);
+    });
+    expect(rows[1].value_text).toBe("20.0 kΩ");
+    expect(rows.filter((r) => r.type === "op-amp").map((r) => r.ref)).toEqual(["U1", "U2"]);
+    const groups = read(bomGroupsCsv(bom));
+    expect(groups.find((g) => g.value === "10000")!.refs).toBe("R1 R3 R4 R5");
+  });
+
+  it("escapes a stage label that starts like a formula", () => {
+    const { hull } = demo();
+    hull.nodes[1].label = "=HYPERLINK(1)";
+    const rows = read(bomCsv(buildBom(hull)));
+    expect(rows[0].stage.startsWith("'=")).toBe(true);
+  });
+
+  it("bring-up sheet: one row per test point, a peak and a phase column per test frequency", () => {
+    const { hull } = demo();
+    const sheet = buildBringUpSheet(hull, analyzeChain(hull), [2, 63]);
+    const rows = read(bringUpCsv(sheet));
+    expect(rows.map((r) => r.test_point)).toEqual(["TP1", "TP2", "TP3", "TP4"]);
+    expect(Number(rows[3]["ac_peak_V_at_63_Hz"])).toBe(sheet.points[3].ac[1].amplitude);
+    expect(Number(rows[1].dc_min_V)).toBe(sheet.points[1].dcInterval!.min);
+  });
+
+  it("response data: the converter's columns equal the engine's path response on its grid", () => {
+    const { turbidity } = demo();
+    const result = analyzeChain(turbidity);
+    const rows = read(plotCsv(turbidity, result, "response"));
+    const resp = result.paths[0].response;
+    expect(rows).toHaveLength(resp.f.length);
+    const key = Object.keys(rows[0]).find((k) => k.startsWith("ADC (adc) magnitude"))!;
+    const ph = Object.keys(rows[0]).find((k) => k.startsWith("ADC (adc) phase"))!;
+    for (const k of [0, 57, resp.f.length - 1]) {
+      expect(Number(rows[k].frequency_Hz)).toBe(resp.f[k]);
+      expect(Number(rows[k][key])).toBeCloseTo(resp.magDb[k]!, 9);
+      expect(Number(rows[k][ph])).toBeCloseTo(resp.phaseDeg[k]!, 9);
+    }
+  });
+
+  it("noise data: the path end's density as the engine gives it", () => {
+    const { hull } = demo();
+    const result = analyzeChain(hull);
+    const rows = read(plotCsv(hull, result, "noise"));
+    const d = result.paths[0].noise.density as number[];
+    expect(Number(rows[10]["adc noise_density_V_per_rtHz"])).toBe(d[10]);
+    expect(d[10]).toBeGreaterThan(0);
+  });
+});

@@ -1,0 +1,188 @@
+/**
+ * Firmware scaling: known inputs go through the engine to the converter, are quantised to codes by the
+ * ideal converter, and come back through the scaling constants within half an LSB referred to the input.
+ * Gains and group delays are also checked against closed forms worked by hand.
+ */
+import { execFileSync } from "node:child_process";
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import type { Chain } from "@/lib/chain/types";
+import { analyzeChain } from "@/lib/engine";
+import { nominalOf } from "@/lib/handoff/bring-up";
+import { buildFirmwareScaling, codeOf, measurandOf, scalingHeader, sourceVoltsOf, type FirmwareScaling } from "@/lib/handoff/firmware";
+import { complete, demo, withParams } from "./handoff-support";
+
+function scalingOf(chain: Chain): FirmwareScaling {
+  const [r] = buildFirmwareScaling(chain, analyzeChain(chain));
+  if (!r.ok) throw new Error(r.reason);
+  return r.scaling;
+}
+
+/** Converter input for a source EMF held at `v` volts DC, from a fresh engine run. */
+function adcVoltsForDc(chain: Chain, sourceId: string, v: number): number {
+  const result = analyzeChain(withParams(chain, sourceId, { dc: v, dcSpread: 0 }));
+  return nominalOf(result.paths[0].adc!.dcIn as { min: number; max: number })!;
+}
+
+describe("DC-coupled paths round-trip a known input within half an LSB", () => {
+  const cases: [string, string, number[]][] = [
+    ["turbidity", "pd", [0.05, 0.31, 0.5, 0.777, 1.2]],
+    ["ballast", "bridge", [-0.006, 0, 0.0012345, 0.004, 0.008]],
+  ];
+  for (const [name, src, inputs] of cases) {
+    it(`${name}: every input comes back within LSB/(2·|gain|)`, () => {
+      const chain = demo()[name as "turbidity" | "ballast"];
+      const s = scalingOf(chain);
+      expect(s.coupling).toBe("dc");
+      const halfLsbAtInput = s.adc.lsb / (2 * Math.abs(s.gain));
+      for (const v of inputs) {
+        const volts = adcVoltsForDc(chain, src, v);
+        expect(volts).toBeGreaterThan(s.adc.vinLow);
+        expect(volts).toBeLessThan(s.adc.vinHigh);
+        const back = sourceVoltsOf(s, codeOf(s, volts));
+        expect(Math.abs(back - v)).toBeLessThanOrEqual(halfLsbAtInput * (1 + 1e-9));
+      }
+    });
+  }
+
+  it("the round trip fails when the reconstruction is off by one code (the check can fail)", () => {
+    const chain = demo().turbidity;
+    const s = scalingOf(chain);
+    const v = 0.5;
+    const volts = adcVoltsForDc(chain, "pd", v);
+    expect(Math.abs(sourceVoltsOf(s, codeOf(s, volts) + 1) - v)).toBeGreaterThan(s.adc.lsb / (2 * Math.abs(s.gain)));
+  });
+
+  it("converts to the measurand's unit with the declared sensitivity", () => {
+    const chain = withParams(demo().turbidity, "pd", { sensitivity: 0.01, unit: "NTU" });
+    const s = scalingOf(chain);
+    expect(s.measurand).toMatchObject({ unit: "NTU", sensitivity: 0.01 });
+    for (const ntu of [5, 31, 77.7]) {
+      const volts = adcVoltsForDc(chain, "pd", ntu * 0.01);
+      const back = measurandOf(s, codeOf(s, volts))!;
+      expect(Math.abs(back - ntu)).toBeLessThanOrEqual((s.adc.lsb / (2 * Math.abs(s.gain) * 0.01)) * (1 + 1e-9));
+    }
+    expect(scalingOf(demo().turbidity).measurand).toBeNull();
+  });
+
+  it("gain, zero-input code and sign match the circuit worked by hand", () => {
+    const t = scalingOf(demo().turbidity);
+    // −r2/(r1 + rs) · (−r2/r1 of the MFB = −1) · 1: 20k/11k, moved under 1e-4 by the parts' finite gain
+    expect(t.gain).toBeCloseTo(20 / 11, 4);
+    expect(t.gain).toBe(analyzeChain(demo().turbidity).paths[0].adc!.pathDcGain);
+    expect(t.zeroInputVolts).toBeCloseTo(0, 9);
+    expect(t.zeroInputCode).toBe(0);
+    const b = scalingOf(demo().ballast);
+    // ×500 then the lossy integrator's −r2/r1 = −1
+    expect(b.gain).toBeCloseTo(-500, -1);
+    expect(b.gainPhaseDeg).toBe(180);
+    expect(b.zeroInputCode).toBe(32768); // 0 V on a ±4.096 V, 16-bit range
+  });
+});
+
+describe("AC-coupled path (hull vibration)", () => {
+  it("is scaled at the band's middle about the resting level, and a sine comes back within half an LSB", () => {
+    const chain = demo().hull;
+    const s = scalingOf(chain);
+    expect(s.coupling).toBe("ac");
+    expect(s.scalingFrequency).toBeCloseTo(Math.sqrt(2 * 2000), 9);
+    // resting level: the 2.5 V bias; 2.5 V / (5 V / 4096) = code 2048
+    expect(s.zeroInputCode).toBe(2048);
+    const [resp] = [analyzeChain(chain, { freqs: [s.scalingFrequency] }).paths[0].response];
+    const mag = 10 ** (resp.magDb[0]! / 20);
+    const phase = (resp.phaseDeg[0]! * Math.PI) / 180;
+    expect(Math.abs(s.gain)).toBeCloseTo(mag, 9);
+    const w = 2 * Math.PI * s.scalingFrequency;
+    const amp = 0.5;
+    for (let k = 0; k < 40; k++) {
+      const t = k / (40 * s.scalingFrequency);
+      const volts = s.zeroInputVolts + amp * mag * Math.cos(w * t + phase);
+      const back = sourceVoltsOf(s, codeOf(s, volts));
+      const input = amp * Math.cos(w * t + phase - (s.gain < 0 ? Math.PI : 0));
+      expect(Math.abs(back - input)).toBeLessThanOrEqual((s.adc.lsb / (2 * Math.abs(s.gain))) * (1 + 1e-9));
+    }
+  });
+});
+
+describe("group delay at low frequency", () => {
+  const base = (stage: Record<string, unknown>) =>
+    complete({
+      format: "chainwright.chain/1",
+      name: "delay check",
+      nodes: [
+        { id: "s", kind: "source", params: { dc: 0, amplitude: 0.1, fLow: 0, fHigh: 1000 } },
+        stage,
+        { id: "adc", kind: "adc", params: { bits: 16, sampleRate: 1e5, vinLow: -5, vinHigh: 5 } },
+      ],
+      edges: [{ from: "s", to: "x" }, { from: "x", to: "adc" }],
+    });
+
+  it("an RC low-pass delays by r·c (−dφ/dω of −atan(ωrc) at ω → 0)", () => {
+    const s = scalingOf(base({ id: "x", kind: "rcLowpass", params: { r: 10e3, c: 10e-9 } }));
+    expect(s.groupDelayFrequency).toBe(1);
+    expect(Math.abs(s.groupDelay - 1e-4) / 1e-4).toBeLessThan(1e-5);
+  });
+
+  it("a unity-gain Sallen-Key low-pass delays by c2·(r1 + r2) (first coefficient of its denominator)", () => {
+    const s = scalingOf(
+      base({ id: "x", kind: "sallenKeyLowpass", params: { r1: 10e3, r2: 22e3, c1: 20e-9, c2: 10e-9 }, rails: { low: -12, high: 12 } }),
+    );
+    const want = 10e-9 * (10e3 + 22e3);
+    expect(Math.abs(s.groupDelay - want) / want).toBeLessThan(1e-5);
+    expect(s.gain).toBeCloseTo(1, 12);
+  });
+
+  it("no scaling for a converter behind an integrator (no bounded DC level)", () => {
+    const chain = base({ id: "x", kind: "integrator", params: { r1: 10e3, c2: 1e-6 }, rails: { low: -12, high: 12 } });
+    const [r] = buildFirmwareScaling(chain, analyzeChain(chain));
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.reason).toMatch(/integrator/);
+  });
+});
+
+describe("C header", () => {
+  const gcc = ["/usr/bin/gcc", "/usr/bin/cc"].find((p) => existsSync(p));
+
+  it("names every constant once per converter and reads back to the same numbers", () => {
+    const s = scalingOf(withParams(demo().ballast, "bridge", { sensitivity: 2e-4, unit: "kPa" }));
+    const h = scalingHeader([s], 4);
+    expect(h).toMatch(/revision 4/);
+    const num = (name: string) => Number(new RegExp(`#define ${name} (\\S+)`).exec(h)![1].replace(/L$/, ""));
+    expect(num("CW_ADC_SOURCE_VOLTS_PER_CODE")).toBe(s.sourceVoltsPerCode);
+    expect(num("CW_ADC_SOURCE_OFFSET_VOLTS")).toBe(s.sourceOffsetVolts);
+    expect(num("CW_ADC_UNITS_PER_CODE")).toBe(s.measurand!.unitsPerCode);
+    expect(num("CW_ADC_ZERO_INPUT_CODE")).toBe(s.zeroInputCode);
+    expect(h.match(/#define CW_ADC_GAIN /g)).toHaveLength(1);
+  });
+
+  it.skipIf(!gcc)("compiles, and its functions give the same values as the JSON constants", () => {
+    const s = scalingOf(withParams(demo().turbidity, "pd", { sensitivity: 0.01, unit: "NTU" }));
+    const dir = mkdtempSync(join(tmpdir(), "cw-header-"));
+    writeFileSync(join(dir, "scaling.h"), scalingHeader([s], 2));
+    writeFileSync(
+      join(dir, "main.c"),
+      [
+        "#include <stdio.h>",
+        '#include "scaling.h"',
+        "int main(void) {",
+        "  int32_t c[] = {0, 1, 1489, 4095};",
+        "  for (int i = 0; i < 4; i++) {",
+        '    printf("%.17g %.17g\\n", cw_adc_source_volts(c[i]), cw_adc_measurand(c[i]));',
+        "  }",
+        "  return 0;",
+        "}",
+        "",
+      ].join("\n"),
+    );
+    execFileSync(gcc!, ["-std=c99", "-Wall", "-Werror", "-o", join(dir, "main"), join(dir, "main.c")], { cwd: dir });
+    const out = execFileSync(join(dir, "main"), { encoding: "utf8" }).trim().split("\n");
+    rmSync(dir, { recursive: true, force: true });
+    [0, 1, 1489, 4095].forEach((code, i) => {
+      const [v, m] = out[i].split(" ").map(Number);
+      expect(v).toBeCloseTo(sourceVoltsOf(s, code), 12);
+      expect(m).toBeCloseTo(measurandOf(s, code)!, 10);
+    });
+  });
+});
