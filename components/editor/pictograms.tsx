@@ -40,6 +40,16 @@ const DRAWINGS: Record<NodeKind, string[]> = {
     "M10 17 v-10 h3", res(13, 7, 6), "M19 7 h25 v10", "M23 17 v-6 h3", cap(26, 11), "M28.5 11 h15.5",
     "M10 17 v3", capV(10, 20), "M10 22.5 v2",
   ],
+  // filters: the high-pass sections (the low-pass drawings with resistors and capacitors swapped)
+  sallenKeyHighpass: [
+    "M0 20 h3", cap(3, 20), "M5.5 20 h5", cap(10.5, 20), "M13 20 h14", amp(27, 17),
+    "M39 17 h9", "M8 20 v-14 h9", res(17, 6, 7), "M24 6 h19 v11", "M20 20 v1", resV(20, 21, 4), "M20 25 v1",
+  ],
+  mfbHighpass: [
+    "M0 17 h2", cap(2, 17), "M4.5 17 h6", cap(10.5, 17), "M13 17 h15", amp(28, 17), "M40 17 h8",
+    "M8 17 v-10 h5", cap(13, 7), "M15.5 7 h28.5 v10", "M20 17 v-6 h2", res(22, 11, 7), "M29 11 h15",
+    "M8 17 v2", resV(8, 19, 4), "M8 23 v1.5",
+  ],
   adc: [
     "M0 14 h10",
     "M10 4 h22 l10 10 l-10 10 h-22 Z",

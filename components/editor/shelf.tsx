@@ -29,13 +29,15 @@ export function Shelf() {
               e.dataTransfer.effectAllowed = "copy";
             }}
             onClick={() => actions.addNode(kind, undefined, { after })}
-            title={`${spec.blurb}. Key ${SHELF_KEYS[kind]}.`}
+            title={SHELF_KEYS[kind] ? `${spec.blurb}. Key ${SHELF_KEYS[kind]}.` : `${spec.blurb}.`}
             data-kind={kind}
             className="group flex items-center gap-2 rounded-card border border-transparent px-1 py-1 text-left text-[12.5px] text-graphite-900 hover:border-paper-rule hover:bg-paper-raised disabled:cursor-not-allowed disabled:opacity-50"
           >
             <Pictogram kind={kind} className="shrink-0 text-graphite-700" />
             <span className="min-w-0 flex-1 leading-tight">{spec.title}</span>
-            <kbd className="num rounded border border-paper-rule px-1 text-[10px] text-graphite-500">{SHELF_KEYS[kind]}</kbd>
+            {SHELF_KEYS[kind] && (
+              <kbd className="num rounded border border-paper-rule px-1 text-[10px] text-graphite-500">{SHELF_KEYS[kind]}</kbd>
+            )}
           </button>
         );
       })}

@@ -18,13 +18,18 @@ export interface KeyLike {
   altKey: boolean;
 }
 
-/** The digit that adds each shelf kind: 1…9, then 0. */
-export const SHELF_KEYS: Record<NodeKind, string> = Object.fromEntries(
-  SHELF_ORDER.map((k, i) => [k, String((i + 1) % 10)]),
-) as Record<NodeKind, string>;
+/**
+ * The digit that adds each shelf kind: 1…9 for the first nine, 0 for the last (the ADC). The shelf holds more
+ * than ten kinds, so the ones between have no digit (undefined here); they are added from the shelf.
+ */
+const LAST_KIND = SHELF_ORDER[SHELF_ORDER.length - 1];
+export const SHELF_KEYS: Partial<Record<NodeKind, string>> = Object.fromEntries([
+  ...SHELF_ORDER.slice(0, 9).map((k, i) => [k, String(i + 1)]),
+  [LAST_KIND, "0"],
+]);
 
 export const KEY_TABLE: { keys: string; what: string }[] = [
-  { keys: "1 … 9, 0", what: "add the shelf's stages (after the selected node, connected)" },
+  { keys: "1 … 9, 0", what: "add the shelf's first nine stages, or (0) the ADC (after the selected node, connected)" },
   { keys: "K", what: "connect the two selected nodes, left to right" },
   { keys: "Delete", what: "delete the selected nodes or connections" },
   { keys: "Ctrl D", what: "duplicate" },
@@ -61,7 +66,7 @@ export function commandFor(e: KeyLike): Command | null {
   if (k === "f") return { type: "fit" };
   if (k === "k") return { type: "connect" };
   if (/^[0-9]$/.test(k)) {
-    const kind = SHELF_ORDER[(Number(k) + 9) % 10];
+    const kind = k === "0" ? LAST_KIND : SHELF_ORDER[Number(k) - 1];
     return kind ? { type: "add", kind } : null;
   }
   return null;

@@ -174,6 +174,8 @@ export const nodeTypes = {
   integrator: OpAmpCard,
   sallenKeyLowpass: OpAmpCard,
   mfbLowpass: OpAmpCard,
+  sallenKeyHighpass: OpAmpCard,
+  mfbHighpass: OpAmpCard,
   rcLowpass: PassiveCard,
   rcHighpass: PassiveCard,
   adc: AdcCard,

@@ -28,6 +28,9 @@ const req = (rule: NumberRule): ParamSpec => ({ rule, required: true });
 const opt = (rule: NumberRule, dflt: number | null): ParamSpec => ({ rule, required: false, default: dflt });
 
 const VREF = opt(VOLTS, 0);
+/** The optional gain network of the Sallen-Key sections (gain 1 + rf/rg; both null: unity gain). */
+const GAIN_RF = opt({ ...OHMS, nullMeans: "unity gain (the output tied to (−))" }, null);
+const GAIN_RG = opt({ ...OHMS, nullMeans: "unity gain (no resistor from (−) to vref)" }, null);
 
 /** Params per kind, in the order chain-format.md gives them. */
 export const PARAM_SPECS: Readonly<Record<NodeKind, Readonly<Record<string, ParamSpec>>>> = {
@@ -55,8 +58,11 @@ export const PARAM_SPECS: Readonly<Record<NodeKind, Readonly<Record<string, Para
   integrator: { r1: req(OHMS), c2: req(FARADS), vref: VREF },
   rcLowpass: { r: req(OHMS), c: req(FARADS) },
   rcHighpass: { c: req(FARADS), r: req(OHMS), vbias: opt(VOLTS, 0) },
-  sallenKeyLowpass: { r1: req(OHMS), r2: req(OHMS), c1: req(FARADS), c2: req(FARADS), vref: VREF },
+  sallenKeyLowpass: { r1: req(OHMS), r2: req(OHMS), c1: req(FARADS), c2: req(FARADS), rf: GAIN_RF, rg: GAIN_RG, vref: VREF },
   mfbLowpass: { r1: req(OHMS), r2: req(OHMS), r3: req(OHMS), c1: req(FARADS), c2: req(FARADS), vref: VREF },
+  // filters: high-pass sections
+  sallenKeyHighpass: { c1: req(FARADS), c2: req(FARADS), r1: req(OHMS), r2: req(OHMS), rf: GAIN_RF, rg: GAIN_RG, vref: VREF },
+  mfbHighpass: { c1: req(FARADS), c2: req(FARADS), c3: req(FARADS), r1: req(OHMS), r2: req(OHMS), vref: VREF },
   adc: {
     bits: req({ unit: "none", bound: "positive", integer: { min: 1, max: 32 } }),
     sampleRate: req({ unit: "hertz", bound: "positive" }),
@@ -77,6 +83,8 @@ export const KIND_WORDS: Readonly<Record<NodeKind, string>> = {
   rcHighpass: "an RC high-pass",
   sallenKeyLowpass: "a Sallen-Key low-pass",
   mfbLowpass: "an MFB low-pass",
+  sallenKeyHighpass: "a Sallen-Key high-pass",
+  mfbHighpass: "an MFB high-pass",
   adc: "an ADC",
 };
 
@@ -111,6 +119,12 @@ export function crossParamIssues(kind: NodeKind, params: Record<string, unknown>
     out.push({
       key: "rf",
       message: "is required when rg is given (the gain is 1 + rf/rg); leave rg out or null for a follower",
+    });
+  }
+  if (complete && (kind === "sallenKeyLowpass" || kind === "sallenKeyHighpass") && typeof params.rg === "number" && (params.rf === null || params.rf === undefined)) {
+    out.push({
+      key: "rf",
+      message: "is required when rg is given (the section's gain is 1 + rf/rg); leave both out or null for unity gain",
     });
   }
   return out;

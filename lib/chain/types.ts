@@ -95,8 +95,20 @@ export interface LossyIntegratorParams { r1: number; r2: number; c2: number; vre
 export interface IntegratorParams { r1: number; c2: number; vref: number }
 export interface RcLowpassParams { r: number; c: number }
 export interface RcHighpassParams { c: number; r: number; vbias: number }
-export interface SallenKeyLowpassParams { r1: number; r2: number; c1: number; c2: number; vref: number }
+/**
+ * Sallen-Key low-pass. rf/rg (filters): the optional gain network, rf out→(−), rg (−)→vref, gain
+ * K = 1 + rf/rg; both null (the default, and what older documents mean) is the unity-gain stage with the
+ * output tied to (−); rf alone is a follower with rf in its feedback. Optional in the type so that code
+ * written before they existed still builds; the schema fills in null.
+ */
+export interface SallenKeyLowpassParams { r1: number; r2: number; c1: number; c2: number; rf?: number | null; rg?: number | null; vref: number }
 export interface MfbLowpassParams { r1: number; r2: number; r3: number; c1: number; c2: number; vref: number }
+// --- filters: high-pass sections (Sallen-Key and multiple feedback) ---
+/** Sallen-Key high-pass: c1 Vin→A, c2 A→(+), r1 A→out, r2 (+)→vref; rf/rg as in SallenKeyLowpassParams. */
+export interface SallenKeyHighpassParams { c1: number; c2: number; r1: number; r2: number; rf?: number | null; rg?: number | null; vref: number }
+/** MFB high-pass: c1 Vin→A, r1 A→vref, c2 A→out, c3 A→(−), r2 (−)→out, (+) at vref. */
+export interface MfbHighpassParams { c1: number; c2: number; c3: number; r1: number; r2: number; vref: number }
+// --- end filters ---
 export interface AdcParams {
   bits: number;
   sampleRate: number;
@@ -126,6 +138,8 @@ export type RcLowpassNode = NodeBase & { kind: "rcLowpass"; params: RcLowpassPar
 export type RcHighpassNode = NodeBase & { kind: "rcHighpass"; params: RcHighpassParams };
 export type SallenKeyLowpassNode = OpAmpNodeBase & { kind: "sallenKeyLowpass"; params: SallenKeyLowpassParams };
 export type MfbLowpassNode = OpAmpNodeBase & { kind: "mfbLowpass"; params: MfbLowpassParams };
+export type SallenKeyHighpassNode = OpAmpNodeBase & { kind: "sallenKeyHighpass"; params: SallenKeyHighpassParams };
+export type MfbHighpassNode = OpAmpNodeBase & { kind: "mfbHighpass"; params: MfbHighpassParams };
 export type AdcNode = NodeBase & { kind: "adc"; params: AdcParams };
 
 export type ChainNode =
@@ -138,6 +152,8 @@ export type ChainNode =
   | RcHighpassNode
   | SallenKeyLowpassNode
   | MfbLowpassNode
+  | SallenKeyHighpassNode
+  | MfbHighpassNode
   | AdcNode;
 
 export type NodeKind = ChainNode["kind"];
@@ -155,6 +171,8 @@ export const NODE_KINDS: readonly NodeKind[] = [
   "rcHighpass",
   "sallenKeyLowpass",
   "mfbLowpass",
+  "sallenKeyHighpass",
+  "mfbHighpass",
   "adc",
 ];
 export const OPAMP_KINDS: readonly OpAmpKind[] = [
@@ -164,6 +182,8 @@ export const OPAMP_KINDS: readonly OpAmpKind[] = [
   "integrator",
   "sallenKeyLowpass",
   "mfbLowpass",
+  "sallenKeyHighpass",
+  "mfbHighpass",
 ];
 
 export interface Edge {

@@ -34,6 +34,8 @@ const ROLE_OPAMP = 3;
 const ROLE_RC_LP = 4;
 const ROLE_RC_HP = 5;
 const ROLE_ADC = 6;
+/** coefficients per polynomial in the vectorised kernel (degree ≤ 4: the MFB high-pass input admittance) */
+const KC = 5;
 
 /** What a transfer source is, for noise densities and DC roles. */
 export type TransferSourceType = "emf" | "passive-r" | InternalSourceType | "drift";
@@ -137,7 +139,7 @@ class FastChain implements CompiledChain {
   // values (reloaded by retune)
   private readonly valA: Float64Array; // r (passive), resistance (source), 1/Rin (adc)
   private readonly valB: Float64Array; // c (passive)
-  /** per op-amp stage q: den, vo, iin of its closed form, 4 coefficients each (degree ≤ 3), 12 per stage */
+  /** per op-amp stage q: den, vo, iin of its closed form, KC coefficients each (degree ≤ 4), 3·KC per stage */
   private readonly coef: Float64Array;
   private readonly limH: Float64Array;
   private readonly limY: Float64Array;
@@ -235,7 +237,7 @@ class FastChain implements CompiledChain {
     });
     const ops = this.role.reduce<number[]>((acc, r, i) => (r === ROLE_OPAMP ? [...acc, i] : acc), []);
     this.opIdx = Int32Array.from(ops);
-    this.coef = new Float64Array(12 * ops.length);
+    this.coef = new Float64Array(3 * KC * ops.length);
     this.loadValues(chain, true);
     this.driftBase = this.sources.length;
     for (const i of this.integrators) {
@@ -356,9 +358,9 @@ class FastChain implements CompiledChain {
           for (const s of model.sources) addSource({ element: s.element, type: s.type, resistance: s.resistance });
           const polys = [model.den, model.vin.vo, model.vin.iin];
           polys.forEach((p, j) => {
-            // the kernel evaluates cubics; a kind with a higher degree needs the kernel extended
-            if (p.length > 4) throw new Error(`${node.kind}: closed form of degree ${p.length - 1} > 3`);
-            for (let c = 0; c < 4; c++) this.coef[12 * q + 4 * j + c] = c < p.length ? p[c] : 0;
+            // the kernel evaluates quartics; a kind with a higher degree needs the kernel extended
+            if (p.length > KC) throw new Error(`${node.kind}: closed form of degree ${p.length - 1} > ${KC - 1}`);
+            for (let c = 0; c < KC; c++) this.coef[3 * KC * q + KC * j + c] = c < p.length ? p[c] : 0;
           });
           this.limH[i] = limitAtZero(model.vin.vo, model.den);
           this.limY[i] = limitAtZero(model.vin.iin, model.den);
@@ -404,11 +406,11 @@ class FastChain implements CompiledChain {
     const { coef, opIdx, role, valA, valB, kids } = this;
     for (let q = 0; q < opIdx.length; q++) {
       const i = opIdx[q];
-      // p(jω) = (c0 − c2·ω²) + j·ω·(c1 − c3·ω²)
-      const o = 12 * q;
-      const d0 = coef[o], d1 = coef[o + 1], d2 = coef[o + 2], d3 = coef[o + 3];
-      const v0 = coef[o + 4], v1 = coef[o + 5], v2 = coef[o + 6], v3 = coef[o + 7];
-      const y0 = coef[o + 8], y1 = coef[o + 9], y2 = coef[o + 10], y3 = coef[o + 11];
+      // p(jω) = (c0 − c2·ω² + c4·ω⁴) + j·ω·(c1 − c3·ω²)
+      const o = 3 * KC * q;
+      const d0 = coef[o], d1 = coef[o + 1], d2 = coef[o + 2], d3 = coef[o + 3], d4 = coef[o + 4];
+      const v0 = coef[o + 5], v1 = coef[o + 6], v2 = coef[o + 7], v3 = coef[o + 8], v4 = coef[o + 9];
+      const y0 = coef[o + 10], y1 = coef[o + 11], y2 = coef[o + 12], y3 = coef[o + 13], y4 = coef[o + 14];
       const hr = Hr[i];
       const hi = Hi[i];
       const yr = Yr[i];
@@ -425,12 +427,12 @@ class FastChain implements CompiledChain {
           continue;
         }
         const w2 = w * w;
-        const ar = d0 - d2 * w2;
+        const ar = d0 - w2 * (d2 - d4 * w2);
         const ai = w * (d1 - d3 * w2);
         const inv = 1 / (ar * ar + ai * ai);
-        const br = v0 - v2 * w2;
+        const br = v0 - w2 * (v2 - v4 * w2);
         const bi = w * (v1 - v3 * w2);
-        const cr = y0 - y2 * w2;
+        const cr = y0 - w2 * (y2 - y4 * w2);
         const ci = w * (y1 - y3 * w2);
         hr[k] = (br * ar + bi * ai) * inv;
         hi[k] = (bi * ar - br * ai) * inv;

@@ -91,6 +91,13 @@ function buildNetwork(chain: Chain): RefNetwork {
     const a = `${id}.a`;
     const m = `${id}.m`;
     const p = `${id}.p`;
+    // a Sallen-Key section's gain network: rf output→(−), rg vref→(−); without rf, (−) is the output
+    const gainNet = (g: { rf?: number | null; rg?: number | null }) => {
+      if (g.rf == null) return id;
+      R(id, m, g.rf, "rf");
+      if (g.rg != null) R(vref, m, g.rg, "rg");
+      return m;
+    };
     if (isOpAmpKind(node.kind)) {
       outPoint.set(id, id);
       rootOf.set(id, id);
@@ -126,9 +133,29 @@ function buildNetwork(chain: Chain): RefNetwork {
         R(a, p, node.params.r2, "r2");
         C(a, id, node.params.c1);
         C(p, vref, node.params.c2);
-        el.push({ t: "OA", p, m: id, o: id, part: partOf(node), stage: id });
+        el.push({ t: "OA", p, m: gainNet(node.params), o: id, part: partOf(node), stage: id });
         dcKnown.set(vref, node.params.vref);
         plusPoint.set(id, p);
+        break;
+      // filters: Sallen-Key high-pass and MFB high-pass
+      case "sallenKeyHighpass":
+        C(vin, a, node.params.c1);
+        C(a, p, node.params.c2);
+        R(a, id, node.params.r1, "r1");
+        R(p, vref, node.params.r2, "r2");
+        el.push({ t: "OA", p, m: gainNet(node.params), o: id, part: partOf(node), stage: id });
+        dcKnown.set(vref, node.params.vref);
+        plusPoint.set(id, p);
+        break;
+      case "mfbHighpass":
+        C(vin, a, node.params.c1);
+        R(a, vref, node.params.r1, "r1");
+        C(a, id, node.params.c2);
+        C(a, m, node.params.c3);
+        R(id, m, node.params.r2, "r2");
+        el.push({ t: "OA", p: vref, m, o: id, part: partOf(node), stage: id });
+        dcKnown.set(vref, node.params.vref);
+        plusPoint.set(id, vref);
         break;
       case "mfbLowpass":
         R(vin, a, node.params.r1, "r1");
@@ -382,8 +409,10 @@ function excitationFor(net: RefNetwork, chain: Chain, key: string): Excitation |
   if (element === "vref") return { t: "known", node: `${id}.vref` };
   if (element === "in+") return { t: "pin", node: net.plusPoint.get(id)! };
   if (element === "in-") {
-    const minus =
-      node.kind === "noninverting" && node.params.rf === null ? id : `${id}.m`;
+    const rfAbsent =
+      (node.kind === "noninverting" || node.kind === "sallenKeyLowpass" || node.kind === "sallenKeyHighpass") &&
+      node.params.rf == null;
+    const minus = rfAbsent ? id : `${id}.m`;
     return { t: "pin", node: minus };
   }
   return { t: "series", key };

@@ -22,10 +22,12 @@ import type {
   IntegratorParams,
   InvertingParams,
   LossyIntegratorParams,
+  MfbHighpassParams,
   MfbLowpassParams,
   NonInvertingParams,
   OpAmpKind,
   OpAmpNode,
+  SallenKeyHighpassParams,
   SallenKeyLowpassParams,
 } from "../chain/types";
 import type { OpenLoop } from "./open-loop";
@@ -226,6 +228,230 @@ function mfb({ r1, r2, r3, c1, c2 }: MfbLowpassParams, { n, d }: OpenLoop): Stag
   };
 }
 
+// --- filters: Sallen-Key with gain, Sallen-Key high-pass, MFB high-pass ---------------------------------
+//
+// The closed forms below were obtained by nodal analysis of each topology as drawn (the op-amp row
+// d·Vo = n·(V+ + en − V−), every other unknown node by KCL), solved symbolically and expanded so that each
+// coefficient is a sum of products of element values with no cancelling terms left (a computer-algebra
+// elimination, checked by hand for the ideal H(s) and, for the unity-gain Sallen-Key low-pass, term by
+// term against the hand-derived `sallenKey` above). The complex.js path solves the same networks
+// numerically and the agreement test holds the two to 1e-9. Gain networks: f = rf (0 when null), g = 1/rg
+// (0 when null), k1 = f·g = K − 1 with K = 1 + rf/rg; every polynomial is the nodal one multiplied by rg,
+// so rg null is simply g = 0 and rf null as well is the unity-gain section.
+
+/** The gain network of a Sallen-Key section: rf, rg (null: absent) and k1 = K − 1 = rf/rg. */
+function gainNetwork(p: { rf?: number | null; rg?: number | null }) {
+  const rf = p.rf ?? null;
+  const rg = p.rg ?? null;
+  const f = rf ?? 0;
+  return { hasRf: rf !== null, f, rg, k1: rg === null ? 0 : f / rg };
+}
+
+/**
+ * Sallen-Key low-pass with gain: r1 Vin→A, r2 A→(+), c1 A→out, c2 (+)→vref, rf out→(−), rg vref→(−).
+ * Ideal (n = 1, d = 0): H = K/(1 + s·((r1 + r2)·c2 + r1·c1·(1 − K)) + s²·r1·r2·c1·c2), K = 1 + rf/rg.
+ * With finite gain: den = d·K·(1 + s·(r1c1 + r1c2 + r2c2) + s²r1r2c1c2) + n·(ideal denominator).
+ */
+function sallenKeyGain({ r1, r2, c1, c2, ...gain }: SallenKeyLowpassParams, { n, d }: OpenLoop): StageModel {
+  const { hasRf, f, rg, k1 } = gainNetwork(gain);
+  const den = add(mul(d, poly(k1 + 1, (k1 + 1) * (c1 * r1 + c2 * r1 + c2 * r2), c1 * c2 * r1 * r2 * (k1 + 1))), mul(n, poly(1, -c1 * k1 * r1 + c2 * r1 + c2 * r2, c1 * c2 * r1 * r2)));
+  const vin = resp(
+    mul(n, poly(k1 + 1)),
+    add(mul(d, poly(0, (c1 + c2) * (k1 + 1), c1 * c2 * r2 * (k1 + 1))), mul(n, poly(0, -c1 * k1 + c2, c1 * c2 * r2))),
+    add(mul(d, poly(k1 + 1)), mul(n, poly(1))),
+  );
+  const sources: InternalSource[] = [];
+  sources.push(
+    johnson("r1", r1, resp(
+      mul(n, poly(k1 + 1)),
+      add(mul(d, poly(0, (c1 + c2) * (k1 + 1), c1 * c2 * r2 * (k1 + 1))), mul(n, poly(0, -c1 * k1 + c2, c1 * c2 * r2))),
+      add(mul(d, poly(k1 + 1)), mul(n, poly(1))),
+    )),
+  );
+  sources.push(
+    johnson("r2", r2, resp(
+      mul(n, poly(k1 + 1, c1 * r1 * (k1 + 1))),
+      add(mul(d, poly(0, c2 * (k1 + 1))), mul(n, poly(0, -c1 * k1 - c1 + c2))),
+      add(mul(d, poly(k1 + 1, c1 * r1 * (k1 + 1))), mul(n, poly(1, c1 * r1))),
+    )),
+  );
+  if (hasRf)
+    sources.push(
+      johnson("rf", f, resp(
+        mul(n, poly(-1, -c1 * r1 - c2 * r1 - c2 * r2, -c1 * c2 * r1 * r2)),
+        mul(n, poly(0, c1, c1 * c2 * r2)),
+        mul(n, poly(0, -c1 * r1)),
+      )),
+    );
+  if (rg !== null)
+    sources.push(
+      johnson("rg", rg, resp(
+        mul(n, poly(-k1, -k1 * (c1 * r1 + c2 * r1 + c2 * r2), -c1 * c2 * k1 * r1 * r2)),
+        mul(n, poly(0, c1 * k1, c1 * c2 * k1 * r2)),
+        mul(n, poly(0, -c1 * k1 * r1)),
+      )),
+    );
+  sources.push(
+    src("en", "en", resp(
+      mul(n, poly(k1 + 1, (k1 + 1) * (c1 * r1 + c2 * r1 + c2 * r2), c1 * c2 * r1 * r2 * (k1 + 1))),
+      mul(n, poly(0, -c1 * (k1 + 1), -c1 * c2 * r2 * (k1 + 1))),
+      mul(n, poly(0, c1 * r1 * (k1 + 1))),
+    )),
+  );
+  sources.push(
+    src("in+", "in+", resp(
+      mul(n, poly(-(k1 + 1) * (r1 + r2), -c1 * r1 * r2 * (k1 + 1))),
+      add(mul(d, poly(k1 + 1)), mul(n, poly(1, c1 * r2 * (k1 + 1)))),
+      add(mul(d, poly(-(k1 + 1) * (r1 + r2), -c1 * r1 * r2 * (k1 + 1))), mul(n, poly(-r1 - r2, -c1 * r1 * r2))),
+    )),
+  );
+  if (hasRf)
+    sources.push(
+      src("in-", "in-", resp(
+        mul(n, poly(f, f * (c1 * r1 + c2 * r1 + c2 * r2), c1 * c2 * f * r1 * r2)),
+        mul(n, poly(0, -c1 * f, -c1 * c2 * f * r2)),
+        mul(n, poly(0, c1 * f * r1)),
+      )),
+    );
+  sources.push(
+    src("vref", "vref", resp(
+      mul(n, poly(-k1, -c1 * k1 * r1 + c2 * r1 + c2 * r2, c1 * c2 * r1 * r2)),
+      add(mul(d, poly(0, -c2 * (k1 + 1))), mul(n, poly(0, c1 * k1 - c2, -c1 * c2 * r2))),
+      add(mul(d, poly(0, c2 * (k1 + 1) * (r1 + r2), c1 * c2 * r1 * r2 * (k1 + 1))), mul(n, poly(0, -c1 * k1 * r1 + c2 * r1 + c2 * r2, c1 * c2 * r1 * r2))),
+    )),
+  );
+  return { kind: "sallenKeyLowpass", den, vin, sources };
+}
+
+/**
+ * Sallen-Key high-pass: c1 Vin→A, c2 A→(+), r1 A→out, r2 (+)→vref, rf out→(−), rg vref→(−) (both null:
+ * the output tied to (−), unity gain). Ideal: H = K·s²·r1r2c1c2/(1 + s·(r1·(c1 + c2) + r2·c2·(1 − K))
+ * + s²·r1r2c1c2); at DC the output sits at vref (the capacitors block the input).
+ */
+function sallenKeyHighpass({ c1, c2, r1, r2, ...gain }: SallenKeyHighpassParams, { n, d }: OpenLoop): StageModel {
+  const { hasRf, f, rg, k1 } = gainNetwork(gain);
+  const den = add(mul(d, poly(k1 + 1, (k1 + 1) * (c1 * r1 + c2 * r1 + c2 * r2), c1 * c2 * r1 * r2 * (k1 + 1))), mul(n, poly(1, c1 * r1 - c2 * k1 * r2 + c2 * r1, c1 * c2 * r1 * r2)));
+  const vin = resp(
+    mul(n, poly(0, 0, c1 * c2 * r1 * r2 * (k1 + 1))),
+    add(mul(d, poly(0, c1 * (k1 + 1), c1 * c2 * (k1 + 1) * (r1 + r2))), mul(n, poly(0, c1, c1 * c2 * (-k1 * r2 + r1)))),
+    add(mul(d, poly(0, 0, c1 * c2 * r1 * r2 * (k1 + 1))), mul(n, poly(0, 0, c1 * c2 * r1 * r2))),
+  );
+  const sources: InternalSource[] = [];
+  sources.push(
+    johnson("r1", r1, resp(
+      mul(n, poly(0, -c2 * r2 * (k1 + 1))),
+      add(mul(d, poly(0, c1 * (k1 + 1), c1 * c2 * r2 * (k1 + 1))), mul(n, poly(0, c1, c1 * c2 * r2))),
+      add(mul(d, poly(0, -c2 * r2 * (k1 + 1))), mul(n, poly(0, -c2 * r2))),
+    )),
+  );
+  sources.push(
+    johnson("r2", r2, resp(
+      mul(n, poly(-k1 - 1, -r1 * (c1 + c2) * (k1 + 1))),
+      add(mul(d, poly(0, 0, c1 * c2 * r1 * (k1 + 1))), mul(n, poly(0, c1 * (k1 + 1), c1 * c2 * r1))),
+      add(mul(d, poly(-k1 - 1, -r1 * (c1 + c2) * (k1 + 1))), mul(n, poly(-1, -r1 * (c1 + c2)))),
+    )),
+  );
+  if (hasRf)
+    sources.push(
+      johnson("rf", f, resp(
+        mul(n, poly(-1, -c1 * r1 - c2 * r1 - c2 * r2, -c1 * c2 * r1 * r2)),
+        mul(n, poly(0, c1, c1 * c2 * r2)),
+        mul(n, poly(0, -c2 * r2)),
+      )),
+    );
+  if (rg !== null)
+    sources.push(
+      johnson("rg", rg, resp(
+        mul(n, poly(-k1, -k1 * (c1 * r1 + c2 * r1 + c2 * r2), -c1 * c2 * k1 * r1 * r2)),
+        mul(n, poly(0, c1 * k1, c1 * c2 * k1 * r2)),
+        mul(n, poly(0, -c2 * k1 * r2)),
+      )),
+    );
+  sources.push(
+    src("en", "en", resp(
+      mul(n, poly(k1 + 1, (k1 + 1) * (c1 * r1 + c2 * r1 + c2 * r2), c1 * c2 * r1 * r2 * (k1 + 1))),
+      mul(n, poly(0, -c1 * (k1 + 1), -c1 * c2 * r2 * (k1 + 1))),
+      mul(n, poly(0, c2 * r2 * (k1 + 1))),
+    )),
+  );
+  sources.push(
+    src("in+", "in+", resp(
+      mul(n, poly(-r2 * (k1 + 1), -r1 * r2 * (c1 + c2) * (k1 + 1))),
+      add(mul(d, poly(0, 0, c1 * c2 * r1 * r2 * (k1 + 1))), mul(n, poly(0, c1 * r2 * (k1 + 1), c1 * c2 * r1 * r2))),
+      add(mul(d, poly(-r2 * (k1 + 1), -r1 * r2 * (c1 + c2) * (k1 + 1))), mul(n, poly(-r2, -r1 * r2 * (c1 + c2)))),
+    )),
+  );
+  if (hasRf)
+    sources.push(
+      src("in-", "in-", resp(
+        mul(n, poly(f, f * (c1 * r1 + c2 * r1 + c2 * r2), c1 * c2 * f * r1 * r2)),
+        mul(n, poly(0, -c1 * f, -c1 * c2 * f * r2)),
+        mul(n, poly(0, c2 * f * r2)),
+      )),
+    );
+  sources.push(
+    src("vref", "vref", resp(
+      mul(n, poly(1, c1 * r1 - c2 * k1 * r2 + c2 * r1, -c1 * c2 * k1 * r1 * r2)),
+      add(mul(d, poly(0, 0, -c1 * c2 * r1 * (k1 + 1))), mul(n, poly(0, -c1, -c1 * c2 * (-k1 * r2 + r1)))),
+      add(mul(d, poly(k1 + 1, r1 * (c1 + c2) * (k1 + 1))), mul(n, poly(1, c1 * r1 - c2 * k1 * r2 + c2 * r1))),
+    )),
+  );
+  return { kind: "sallenKeyHighpass", den, vin, sources };
+}
+
+/**
+ * Multiple-feedback high-pass: c1 Vin→A, r1 A→vref, c2 A→out, c3 A→(−), r2 (−)→out ("r2: out → (−)"),
+ * (+) at vref. Ideal: H = −s²·c1c3r1r2/(1 + s·r1·(c1 + c2 + c3) + s²·c2c3r1r2), i.e. −(c1/c2)·s²/(s² +
+ * s·(c1 + c2 + c3)/(r2c2c3) + 1/(r1r2c2c3)). The input admittance numerator is of degree 4 with a
+ * single-pole op-amp (the kernel's limit).
+ */
+function mfbHighpass({ c1, c2, c3, r1, r2 }: MfbHighpassParams, { n, d }: OpenLoop): StageModel {
+  const den = add(mul(d, poly(1, c1 * r1 + c2 * r1 + c3 * r1 + c3 * r2, c3 * r1 * r2 * (c1 + c2))), mul(n, poly(1, r1 * (c1 + c2 + c3), c2 * c3 * r1 * r2)));
+  const vin = resp(
+    mul(n, poly(0, 0, -c1 * c3 * r1 * r2)),
+    add(mul(d, poly(0, c1, c1 * (c2 * r1 + c3 * r1 + c3 * r2), c1 * c2 * c3 * r1 * r2)), mul(n, poly(0, c1, c1 * r1 * (c2 + c3), c1 * c2 * c3 * r1 * r2))),
+    ZERO,
+  );
+  const sources: InternalSource[] = [];
+  sources.push(
+    johnson("r1", r1, resp(
+      mul(n, poly(0, c3 * r2)),
+      add(mul(d, poly(0, c1, c1 * c3 * r2)), mul(n, poly(0, c1))),
+      ZERO,
+    )),
+  );
+  sources.push(
+    johnson("r2", r2, resp(
+      mul(n, poly(-1, -r1 * (c1 + c2 + c3))),
+      add(mul(d, poly(0, 0, -c1 * c3 * r1)), mul(n, poly(0, 0, c1 * c2 * r1))),
+      ZERO,
+    )),
+  );
+  sources.push(
+    src("en", "en", resp(
+      mul(n, poly(1, c1 * r1 + c2 * r1 + c3 * r1 + c3 * r2, c3 * r1 * r2 * (c1 + c2))),
+      mul(n, poly(0, 0, -c1 * r1 * (c2 + c3), -c1 * c2 * c3 * r1 * r2)),
+      ZERO,
+    )),
+  );
+  sources.push(
+    src("in-", "in-", resp(
+      mul(n, poly(r2, r1 * r2 * (c1 + c2 + c3))),
+      add(mul(d, poly(0, 0, c1 * c3 * r1 * r2)), mul(n, poly(0, 0, -c1 * c2 * r1 * r2))),
+      ZERO,
+    )),
+  );
+  sources.push(
+    src("vref", "vref", resp(
+      mul(n, poly(1, r1 * (c1 + c2 + c3), c3 * r1 * r2 * (c1 + c2))),
+      add(mul(d, poly(0, -c1, -c1 * c3 * r2)), mul(n, poly(0, -c1, -c1 * r1 * (c2 + c3), -c1 * c2 * c3 * r1 * r2))),
+      add(mul(d, poly(1, c1 * r1 + c2 * r1 + c3 * r1 + c3 * r2, c3 * r1 * r2 * (c1 + c2))), mul(n, poly(1, r1 * (c1 + c2 + c3), c2 * c3 * r1 * r2))),
+    )),
+  );
+  return { kind: "mfbHighpass", den, vin, sources };
+}
+// --- end filters ------------------------------------------------------------------------------------------
+
 /** Builds the closed-form model of an op-amp stage for the given open-loop gain. */
 export function stageModel(node: OpAmpNode, ol: OpenLoop): StageModel {
   switch (node.kind) {
@@ -238,8 +464,13 @@ export function stageModel(node: OpAmpNode, ol: OpenLoop): StageModel {
     case "integrator":
       return integrator(node.params, ol);
     case "sallenKeyLowpass":
-      return sallenKey(node.params, ol);
+      // unity gain (no rf): the hand-derived form, unchanged for documents written before rf/rg existed
+      return node.params.rf == null ? sallenKey(node.params, ol) : sallenKeyGain(node.params, ol);
     case "mfbLowpass":
       return mfb(node.params, ol);
+    case "sallenKeyHighpass":
+      return sallenKeyHighpass(node.params, ol);
+    case "mfbHighpass":
+      return mfbHighpass(node.params, ol);
   }
 }

@@ -61,6 +61,8 @@ const ID_PREFIX: Record<NodeKind, string> = {
   integrator: "u",
   sallenKeyLowpass: "u",
   mfbLowpass: "u",
+  sallenKeyHighpass: "u",
+  mfbHighpass: "u",
   rcLowpass: "rc",
   rcHighpass: "rc",
   adc: "adc",

@@ -118,9 +118,9 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
   sallenKeyLowpass: {
     kind: "sallenKeyLowpass",
     title: "Sallen-Key low-pass",
-    blurb: "Unity-gain second-order low-pass",
+    blurb: "Second-order low-pass; gain 1 + rf/rg, or leave rf and rg empty for unity gain",
     opAmp: true,
-    fields: [R("r1"), R("r2"), C("c1"), C("c2"), VREF()],
+    fields: [R("r1"), R("r2"), C("c1"), C("c2"), R("rf"), R("rg"), VREF()],
     starter: { r1: 10e3, r2: 10e3, c1: 22e-9, c2: 10e-9 },
     cardFields: [["r1", "r1"], ["r2", "r2"], ["c1", "c1"], ["c2", "c2"]],
   },
@@ -132,6 +132,27 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
     fields: [R("r1"), R("r2"), R("r3"), C("c1"), C("c2"), VREF()],
     starter: { r1: 10e3, r2: 10e3, r3: 10e3, c1: 22e-9, c2: 2.2e-9 },
     cardFields: [["r1", "r1"], ["r2", "r2"], ["r3", "r3"], ["c1", "c1"], ["c2", "c2"]],
+  },
+  // filters: the high-pass sections
+  sallenKeyHighpass: {
+    kind: "sallenKeyHighpass",
+    title: "Sallen-Key high-pass",
+    blurb: "Second-order high-pass (c1, c2 in series, r1 to the output, r2 to vref); gain 1 + rf/rg, or empty for unity gain",
+    opAmp: true,
+    fields: [C("c1"), C("c2"), R("r1"), R("r2"), R("rf"), R("rg"), VREF()],
+    // equal capacitors with r2 = 2·r1: Q ≈ 0.707, f0 ≈ 1.02 kHz
+    starter: { c1: 10e-9, c2: 10e-9, r1: 11e3, r2: 22e3 },
+    cardFields: [["c1", "c1"], ["c2", "c2"], ["r1", "r1"], ["r2", "r2"]],
+  },
+  mfbHighpass: {
+    kind: "mfbHighpass",
+    title: "MFB high-pass",
+    blurb: "Multiple-feedback second-order high-pass, passband gain −c1/c2",
+    opAmp: true,
+    fields: [C("c1"), C("c2"), C("c3"), R("r1"), R("r2"), VREF()],
+    // equal capacitors with r2 ≈ 4.7·r1: Q ≈ 0.72, f0 ≈ 1.57 kHz, gain −1
+    starter: { c1: 10e-9, c2: 10e-9, c3: 10e-9, r1: 4.7e3, r2: 22e3 },
+    cardFields: [["c1", "c1"], ["c2", "c2"], ["c3", "c3"], ["r1", "r1"], ["r2", "r2"]],
   },
   adc: {
     kind: "adc",
@@ -161,6 +182,8 @@ export const SHELF_ORDER: NodeKind[] = [
   "rcLowpass",
   "sallenKeyLowpass",
   "mfbLowpass",
+  "sallenKeyHighpass",
+  "mfbHighpass",
   "adc",
 ];
 

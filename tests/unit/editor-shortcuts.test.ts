@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { commandFor, SHELF_KEYS, isTypingTarget } from "@/components/editor/shortcuts";
+import { SHELF_ORDER } from "@/lib/store/stage-catalog";
 
 const key = (k: string, mods: Partial<{ ctrl: boolean; meta: boolean; shift: boolean; alt: boolean }> = {}) => ({
   key: k,
@@ -22,11 +23,16 @@ describe("commandFor", () => {
     expect(commandFor(key("k"))).toEqual({ type: "connect" });
   });
 
-  it("adds shelf kinds by digit, 1 for the first and 0 for the tenth", () => {
+  it("adds shelf kinds by digit, 1 for the first, 9 for the ninth and 0 for the last (the ADC)", () => {
     expect(commandFor(key("1"))).toEqual({ type: "add", kind: "source" });
+    expect(commandFor(key("9"))).toEqual({ type: "add", kind: SHELF_ORDER[8] });
     expect(commandFor(key("0"))).toEqual({ type: "add", kind: "adc" });
     expect(SHELF_KEYS.source).toBe("1");
     expect(SHELF_KEYS.adc).toBe("0");
+    // no digit is given twice, and the kinds between the ninth and the last have none
+    const digits = Object.values(SHELF_KEYS);
+    expect(new Set(digits).size).toBe(digits.length);
+    for (const k of SHELF_ORDER.slice(9, -1)) expect(SHELF_KEYS[k]).toBeUndefined();
   });
 
   it("leaves other keys and Alt combinations alone", () => {

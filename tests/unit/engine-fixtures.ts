@@ -95,6 +95,9 @@ export function randomChain(seed: string, size = 7, opts: { integrators?: boolea
     "rcHighpass",
     "sallenKeyLowpass",
     "mfbLowpass",
+    "sallenKeyLowpassGain",
+    "sallenKeyHighpass",
+    "mfbHighpass",
     ...(opts.integrators ? ["integrator"] : []),
   ] as const;
   const partKeys = [null, ...Object.keys(testParts)];
@@ -134,6 +137,22 @@ export function randomChain(seed: string, size = 7, opts: { integrators?: boolea
         break;
       case "mfbLowpass":
         node = { id, kind, params: { r1: R(), r2: R(), r3: R(), c1: C(), c2: C(), vref: 0 }, ...op };
+        break;
+      // filters: the Sallen-Key gain network (rf alone, or rf and rg) and the high-pass sections
+      case "sallenKeyLowpassGain": {
+        const rg = rng() < 0.2 ? null : R();
+        node = { id, kind: "sallenKeyLowpass", params: { r1: R(), r2: R(), c1: C(), c2: C(), rf: R(), rg, vref: 0 }, ...op };
+        break;
+      }
+      case "sallenKeyHighpass": {
+        const g = rng();
+        const rf = g < 0.3 ? null : R();
+        const rg = rf === null || g > 0.85 ? null : R();
+        node = { id, kind, params: { c1: C(), c2: C(), r1: R(), r2: R(), rf, rg, vref: 0 }, ...op };
+        break;
+      }
+      case "mfbHighpass":
+        node = { id, kind, params: { c1: C(), c2: C(), c3: C(), r1: R(), r2: R(), vref: 0 }, ...op };
         break;
     }
     nodes.push(node);

@@ -39,6 +39,43 @@ describe("stageModel", () => {
       for (const s of S) close(at(m.vin.vo, s).div(at(m.den, s)), h(s));
     }
   });
+  // filters: ideal H(s) derived by hand from the nodal equations of each topology (lib/engine/README.md)
+  it("reduces the Sallen-Key sections with gain and the MFB high-pass to their ideal H(s)", () => {
+    const [r1, r2, c1, c2, rf, rg] = [1.2e4, 3.3e4, 4.7e-9, 2.2e-9, 1.5e4, 2.2e4];
+    const K = 1 + rf / rg;
+    const t2 = r1 * r2 * c1 * c2;
+    const lp = (k: number) => (s: Complex) =>
+      new Complex(k, 0).div(s.mul(s).mul(t2).add(s.mul((r1 + r2) * c2 + r1 * c1 * (1 - k))).add(1));
+    const hp = (k: number) => (s: Complex) =>
+      s.mul(s).mul(k * t2).div(s.mul(s).mul(t2).add(s.mul(r1 * (c1 + c2) + r2 * c2 * (1 - k))).add(1));
+    const [m1, m2, m3] = [22e-9, 10e-9, 4.7e-9];
+    const mfbHp = (s: Complex) =>
+      s.mul(s).mul(-m1 * m3 * r1 * r2).div(s.mul(s).mul(m2 * m3 * r1 * r2).add(s.mul(r1 * (m1 + m2 + m3))).add(1));
+    const cases: [OpAmpNode, (s: Complex) => Complex][] = [
+      [node("sallenKeyLowpass", { r1, r2, c1, c2, rf, rg }), lp(K)],
+      [node("sallenKeyLowpass", { r1, r2, c1, c2, rf, rg: null }), lp(1)],
+      [node("sallenKeyHighpass", { c1, c2, r1, r2, rf, rg }), hp(K)],
+      [node("sallenKeyHighpass", { c1, c2, r1, r2, rf: null, rg: null }), hp(1)],
+      [node("sallenKeyHighpass", { c1, c2, r1, r2, rf, rg: null }), hp(1)],
+      [node("mfbHighpass", { c1: m1, c2: m2, c3: m3, r1, r2 }), mfbHp],
+    ];
+    for (const [n, h] of cases) {
+      const m = stageModel(n, ideal);
+      for (const s of S) close(at(m.vin.vo, s).div(at(m.den, s)), h(s));
+    }
+  });
+  it("gives the Sallen-Key low-pass with gain the unity-gain closed form when K = 1 (rg absent)", () => {
+    // rf alone only carries the (−) pin current: the signal response equals the hand-derived unity-gain form
+    const p = { r1: 1.2e4, r2: 3.3e4, c1: 4.7e-9, c2: 2.2e-9 };
+    for (const ol of [openLoop({ aol: 1e5, gbw: 1e6 }), openLoop({ gbw: 3e6 }), openLoop({ aol: 2e4 })]) {
+      const a = stageModel(node("sallenKeyLowpass", p), ol);
+      const b = stageModel(node("sallenKeyLowpass", { ...p, rf: 1e4, rg: null }), ol);
+      for (const s of S) {
+        close(at(b.vin.vo, s).div(at(b.den, s)), at(a.vin.vo, s).div(at(a.den, s)));
+        close(at(b.vin.iin, s).div(at(b.den, s)), at(a.vin.iin, s).div(at(a.den, s)));
+      }
+    }
+  });
   it("gives an inverting stage's input impedance r1 + r2/(1 + A) with finite gain", () => {
     const m = stageModel(node("inverting", { r1: 1e3, r2: 1e5 }), openLoop({ aol: 1e3 }));
     const s = new Complex(0, 1);
@@ -61,5 +98,9 @@ describe("stageModel", () => {
     expect(els(node("sallenKeyLowpass", { r1: 1, r2: 1, c1: 1, c2: 1 }))).toEqual(["r1", "r2", "en", "in+", "vref"]);
     expect(els(node("noninverting", { rf: 1, rg: 1 }))).toEqual(["rf", "rg", "en", "in-", "in+", "vref"]);
     expect(els(node("integrator", { r1: 1, c2: 1 }))).toEqual(["r1", "en", "in-", "vref"]);
+    expect(els(node("sallenKeyLowpass", { r1: 1, r2: 1, c1: 1, c2: 1, rf: 1, rg: 1 }))).toEqual(["r1", "r2", "rf", "rg", "en", "in+", "in-", "vref"]);
+    expect(els(node("sallenKeyHighpass", { r1: 1, r2: 1, c1: 1, c2: 1, rf: null, rg: null }))).toEqual(["r1", "r2", "en", "in+", "vref"]);
+    expect(els(node("sallenKeyHighpass", { r1: 1, r2: 1, c1: 1, c2: 1, rf: 1, rg: null }))).toEqual(["r1", "r2", "rf", "en", "in+", "in-", "vref"]);
+    expect(els(node("mfbHighpass", { r1: 1, r2: 1, c1: 1, c2: 1, c3: 1 }))).toEqual(["r1", "r2", "en", "in-", "vref"]);
   });
 });
