@@ -6,7 +6,7 @@ export { ENGINE_VERSION } from "./version";
 export { analyzeChain } from "./analyze";
 export { compileChain } from "./compile-chain";
 export type { CompiledChain, CompiledPath, SweepResult, TransferSource, TransferSourceType } from "./compile-chain";
-export { idealCharacteristics } from "./ideal";
+export { idealCharacteristics, sallenKeyGain } from "./ideal";
 export type { IdealCharacteristics } from "./ideal";
 export { referenceResponse, referenceTransfer } from "./reference-path";
 export { toMagnitudePhase } from "./response";

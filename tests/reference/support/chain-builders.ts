@@ -17,12 +17,14 @@ import type {
   IntegratorNode,
   InvertingNode,
   LossyIntegratorNode,
+  MfbHighpassNode,
   MfbLowpassNode,
   NonInvertingNode,
   Part,
   Rails,
   RcHighpassNode,
   RcLowpassNode,
+  SallenKeyHighpassNode,
   SallenKeyLowpassNode,
   SourceNode,
   SourceParams,
@@ -100,10 +102,27 @@ export function integrator(id: string, p: { r1: number; c2: number; vref?: numbe
 
 export function sallenKey(
   id: string,
-  p: { r1: number; r2: number; c1: number; c2: number; vref?: number },
+  p: { r1: number; r2: number; c1: number; c2: number; rf?: number | null; rg?: number | null; vref?: number },
   o: OpAmpOpts = {},
 ): SallenKeyLowpassNode {
   return { ...opAmpBase(id, o), kind: "sallenKeyLowpass", params: { vref: 0, ...p } };
+}
+
+// filters: the high-pass sections (lib/chain/README.md, "Filter sections")
+export function sallenKeyHighpass(
+  id: string,
+  p: { c1: number; c2: number; r1: number; r2: number; rf?: number | null; rg?: number | null; vref?: number },
+  o: OpAmpOpts = {},
+): SallenKeyHighpassNode {
+  return { ...opAmpBase(id, o), kind: "sallenKeyHighpass", params: { rf: null, rg: null, vref: 0, ...p } };
+}
+
+export function mfbHighpass(
+  id: string,
+  p: { c1: number; c2: number; c3: number; r1: number; r2: number; vref?: number },
+  o: OpAmpOpts = {},
+): MfbHighpassNode {
+  return { ...opAmpBase(id, o), kind: "mfbHighpass", params: { vref: 0, ...p } };
 }
 
 export function mfb(

@@ -82,7 +82,16 @@ export interface Net {
   dcMode: boolean;
 }
 
-const OPAMP_KINDS = new Set(["inverting", "noninverting", "lossyIntegrator", "integrator", "sallenKeyLowpass", "mfbLowpass"]);
+const OPAMP_KINDS = new Set([
+  "inverting",
+  "noninverting",
+  "lossyIntegrator",
+  "integrator",
+  "sallenKeyLowpass",
+  "mfbLowpass",
+  "sallenKeyHighpass",
+  "mfbHighpass",
+]);
 
 export function isOpAmpKind(kind: string): boolean {
   return OPAMP_KINDS.has(kind);
@@ -123,8 +132,11 @@ export function buildNet(chain: Chain, opts: { dcMode?: boolean } = {}): Net {
     elements.push({ kind: "R", a, b, r, owner, element, noisy });
   const C = (a: string, b: string, c: number, owner: string, element: string) =>
     elements.push({ kind: "C", a, b, c, owner, element });
+  const refs = new Set<string>();
+  // one source per reference node, however many elements return to it
   const ref = (node: string, v: number, owner: string) => {
-    elements.push({ kind: "V", p: node, owner, role: "ref", dc: v });
+    if (!refs.has(node)) elements.push({ kind: "V", p: node, owner, role: "ref", dc: v });
+    refs.add(node);
     return node;
   };
   const amp = (owner: string, p: string, n: string, out: string, partKey: string | null | undefined) => {
@@ -132,6 +144,15 @@ export function buildNet(chain: Chain, opts: { dcMode?: boolean } = {}): Net {
     const op: OpAmp = { kind: "opamp", p, n, out, owner, part };
     elements.push(op);
     opamps.set(owner, op);
+  };
+
+  // a Sallen-Key section's (−) pin: the output itself, or the tap of rf (out→(−)) and rg ((−)→vref)
+  const skMinus = (id: string, out: string, p: { rf?: number | null; rg?: number | null; vref: number }) => {
+    if (p.rf === null || p.rf === undefined) return out;
+    const n = `${id}:n`;
+    R(out, n, p.rf, id, "rf");
+    if (p.rg !== null && p.rg !== undefined) R(n, ref(`${id}:ref`, p.vref, id), p.rg, id, "rg");
+    return n;
   };
 
   for (const node of topoOrder(chain)) {
@@ -220,7 +241,34 @@ export function buildNet(chain: Chain, opts: { dcMode?: boolean } = {}): Net {
         R(a, pl, p.r2, id, "r2");
         C(a, out, p.c1, id, "c1");
         C(pl, ref(`${id}:ref`, p.vref, id), p.c2, id, "c2");
-        amp(id, pl, out, out, node.part);
+        amp(id, pl, skMinus(id, out, p), out, node.part);
+        outputOf.set(id, out);
+        break;
+      }
+      // filters: Sallen-Key high-pass and MFB high-pass, from the topology of lib/chain/README.md
+      case "sallenKeyHighpass": {
+        const p = node.params;
+        const a = `${id}:a`;
+        const pl = `${id}:p`;
+        C(input, a, p.c1, id, "c1");
+        C(a, pl, p.c2, id, "c2");
+        R(a, out, p.r1, id, "r1");
+        R(pl, ref(`${id}:ref`, p.vref, id), p.r2, id, "r2");
+        amp(id, pl, skMinus(id, out, p), out, node.part);
+        outputOf.set(id, out);
+        break;
+      }
+      case "mfbHighpass": {
+        const p = node.params;
+        const a = `${id}:a`;
+        const n = `${id}:n`;
+        const vr = ref(`${id}:ref`, p.vref, id);
+        C(input, a, p.c1, id, "c1");
+        R(a, vr, p.r1, id, "r1");
+        C(a, out, p.c2, id, "c2");
+        C(a, n, p.c3, id, "c3");
+        R(n, out, p.r2, id, "r2");
+        amp(id, vr, n, out, node.part);
         outputOf.set(id, out);
         break;
       }

@@ -16,6 +16,8 @@ import {
   rcHighpass,
   rcLowpass,
   sallenKey,
+  sallenKeyHighpass,
+  mfbHighpass,
   source,
 } from "./chain-builders";
 import { isOpAmpKind } from "./nodal";
@@ -49,7 +51,20 @@ const C = (rng: Rng) => logU(rng, 1e-9, 1e-7);
 function randomStage(rng: Rng, id: string, parentIsOpAmp: boolean): ChainNode {
   const o = { part: rng() < 0.75 ? `p${id}` : null, rails: { low: -logU(rng, 2, 15), high: logU(rng, 2, 15) } };
   const vref = rng() < 0.3 ? (rng() - 0.5) * 2 : 0;
-  const kinds = ["inverting", "noninverting", "lossyIntegrator", "rcLowpass", "rcHighpass", "sallenKeyLowpass", "mfbLowpass", "follower"];
+  const kinds = [
+    "inverting",
+    "noninverting",
+    "lossyIntegrator",
+    "rcLowpass",
+    "rcHighpass",
+    "sallenKeyLowpass",
+    "mfbLowpass",
+    "follower",
+    // filters: the gain network of the Sallen-Key sections, and the high-pass sections
+    "sallenKeyGain",
+    "sallenKeyHighpass",
+    "mfbHighpass",
+  ];
   // An integrator only behind an op-amp output: its DC has no value, and the upstream DC
   // loading by its input would depend on that (see the report); keep the rest well defined.
   if (parentIsOpAmp) kinds.push("integrator");
@@ -70,6 +85,13 @@ function randomStage(rng: Rng, id: string, parentIsOpAmp: boolean): ChainNode {
       return rcHighpass(id, { r: R(rng), c: C(rng), vbias: rng() < 0.3 ? rng() * 3 : 0 });
     case "sallenKeyLowpass":
       return sallenKey(id, { r1: R(rng), r2: R(rng), c1: C(rng), c2: C(rng), vref }, o);
+    case "sallenKeyGain":
+      // gain up to 2: mostly below the equal-component limit of 3, so the section is usually stable
+      return sallenKey(id, { r1: R(rng), r2: R(rng), c1: C(rng), c2: C(rng), rf: R(rng) / 10, rg: rng() < 0.2 ? null : R(rng), vref }, o);
+    case "sallenKeyHighpass":
+      return sallenKeyHighpass(id, { c1: C(rng), c2: C(rng), r1: R(rng), r2: R(rng), rf: rng() < 0.5 ? null : R(rng) / 10, rg: null, vref }, o);
+    case "mfbHighpass":
+      return mfbHighpass(id, { c1: C(rng), c2: C(rng), c3: C(rng), r1: R(rng), r2: R(rng), vref }, o);
     default:
       return mfb(id, { r1: R(rng), r2: R(rng), r3: R(rng), c1: C(rng), c2: C(rng), vref }, o);
   }
