@@ -15,3 +15,5 @@ export { solveStage, figuresOf, sensitivities, isSolvableKind, SOLVE_TARGETS, SO
 export type { SolvableKind, SolveTargets, SolveResult, SolvedSet, SolvedParams, Figures, TargetName } from "./solve";
 export { designLowpass, prototypeSections, prototypePoles, prototypeMagnitude, FILTER_RESPONSES, SECTION_ORDER_RULE } from "./filter-design";
 export type { FilterResponse, LowpassSpec, LowpassDesign, DesignedSection, PrototypeSection, SecondOrderKind } from "./filter-design";
+export { adviseGainStaging } from "./gain-staging";
+export type { AdviceOptions, GainAdvice, SplitFigures, SplitStage, StageEdit } from "./gain-staging";
