@@ -1,5 +1,5 @@
 /**
- * `npm run -s analyze -- FILE.json [--freq 10,100,1e3] [--points N]`: the analysis of a complete chain as
+ * `npm run -s analyze -- FILE.json [--freq 10,100,1e3] [--points N] [--trials N [--seed S]]`: the analysis of a complete chain as
  * one JSON document on stdout (chain-format.md, "Analysis result"). Thin on purpose: arguments, reading
  * the file, then the same runAnalysis the API route uses.
  *
@@ -8,7 +8,9 @@
  */
 import { readFileSync } from "node:fs";
 import { parseAnalyzeArgs, USAGE } from "../lib/chain/analyze-cli";
-import { runAnalysis } from "../lib/chain/analyze-request";
+import { runAnalysis, type Analyzer } from "../lib/chain/analyze-request";
+import { analyzeChain } from "../lib/engine";
+import { runSpread } from "../lib/engine/spread";
 import type { ChainIssue } from "../lib/chain/types";
 
 function refuse(errors: ChainIssue[], code = 2): void {
@@ -30,7 +32,7 @@ function readInput(file: string): { ok: true; text: string } | { ok: false; erro
 function main(argv: string[]): void {
   const parsed = parseAnalyzeArgs(argv);
   if (!parsed.ok) return refuse(parsed.errors);
-  const { file, freqs, points, help } = parsed.args;
+  const { file, freqs, points, trials, seed, help } = parsed.args;
   if (help) {
     process.stdout.write(`${USAGE}\n`);
     return;
@@ -45,7 +47,10 @@ function main(argv: string[]): void {
   }
   let outcome;
   try {
-    outcome = runAnalysis({ chain: doc, ...(freqs ? { freqs } : {}), ...(points !== undefined ? { points } : {}) });
+    // with --trials, the same validated chain also goes through the tolerance spread
+    const analyze: Analyzer | undefined =
+      trials === undefined ? undefined : (chain, opts) => ({ ...analyzeChain(chain, opts), spread: runSpread(chain, { trials, seed: seed ?? 1, points: opts?.points }) });
+    outcome = runAnalysis({ chain: doc, ...(freqs ? { freqs } : {}), ...(points !== undefined ? { points } : {}) }, analyze);
   } catch (e) {
     return refuse([{ path: "", message: `the analysis failed: ${(e as Error)?.message ?? String(e)}` }], 1);
   }

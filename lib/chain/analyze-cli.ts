@@ -6,17 +6,20 @@
 import { parseQuantity } from "../units";
 import type { ChainIssue } from "./types";
 import { FREQ_RULE, MAX_FREQS, POINTS_RULE } from "./analyze-request";
-import { meetsRule, numberMessage, ruleText } from "./fields";
+import { meetsRule, numberMessage, ruleText, type NumberRule } from "./fields";
 
 export interface AnalyzeArgs {
   /** a path, or "-" for standard input */
   file: string;
   freqs?: number[];
   points?: number;
+  /** tolerance spread: builds and seed (the result gets a `spread` field) */
+  trials?: number;
+  seed?: number;
   help?: boolean;
 }
 
-export const USAGE = `Usage: npm run -s analyze -- FILE.json [--freq 10,100,1e3] [--points N]
+export const USAGE = `Usage: npm run -s analyze -- FILE.json [--freq 10,100,1e3] [--points N] [--trials N [--seed S]]
 
 Analyses a complete chain document (chainwright.chain/1) and prints the analysis
 (chainwright.analysis/1) as one JSON document on standard output.
@@ -26,13 +29,22 @@ Analyses a complete chain document (chainwright.chain/1) and prints the analysis
                    comma-separated; engineering notation is fine (1k,10k,1.5MHz)
   --points N       points of the log-spaced response grid (2 to 20000),
                    instead of the document's analysis.points
+  --trials N       add the tolerance spread (chainwright.spread/1) as "spread":
+                   N Monte Carlo builds (1 to 100000) with every resistor and
+                   capacitor uniform within its tolerance, worst-case corners
+                   and sensitivities; its envelope uses the --points grid
+  --seed S         seed of the spread's builds, an integer 0 to 4294967295
+                   (default 1); the same seed gives the same result
 
 Exit status: 0 when the analysis ran (whatever it found), 2 for invalid input,
 with {"errors":[{"path","message"}]} on standard error, 1 if the analysis itself failed.`;
 
+const TRIALS_RULE: NumberRule = { unit: "none", bound: "positive", integer: { min: 1, max: 100_000 } };
+const SEED_RULE: NumberRule = { unit: "none", bound: "nonNegative", integer: { min: 0, max: 4_294_967_295 } };
+
 export type ParseArgsResult = { ok: true; args: AnalyzeArgs } | { ok: false; errors: ChainIssue[] };
 
-const OPTIONS = ["--freq", "--points"];
+const OPTIONS = ["--freq", "--points", "--trials", "--seed"];
 
 export function parseAnalyzeArgs(argv: readonly string[]): ParseArgsResult {
   const errors: ChainIssue[] = [];
@@ -40,6 +52,8 @@ export function parseAnalyzeArgs(argv: readonly string[]): ParseArgsResult {
   const seen = new Set<string>();
   let freqs: number[] | undefined;
   let points: number | undefined;
+  let trials: number | undefined;
+  let seed: number | undefined;
   let help = false;
 
   for (let i = 0; i < argv.length; i++) {
@@ -55,14 +69,14 @@ export function parseAnalyzeArgs(argv: readonly string[]): ParseArgsResult {
     const eq = arg.indexOf("=");
     const name = eq >= 0 ? arg.slice(0, eq) : arg;
     if (!OPTIONS.includes(name)) {
-      errors.push({ path: name, message: `is not an option; the options are ${OPTIONS.join(" and ")} (see --help)` });
+      errors.push({ path: name, message: `is not an option; the options are ${OPTIONS.join(", ")} (see --help)` });
       continue;
     }
     let value: string | undefined;
     if (eq >= 0) value = arg.slice(eq + 1);
     else if (i + 1 < argv.length) value = argv[++i];
     if (value === undefined || value === "") {
-      errors.push({ path: name, message: name === "--freq" ? "needs a list of frequencies, e.g. --freq 10,100,1k" : "needs a number, e.g. --points 400" });
+      errors.push({ path: name, message: name === "--freq" ? "needs a list of frequencies, e.g. --freq 10,100,1k" : `needs a number, e.g. ${name} ${name === "--seed" ? 7 : 400}` });
       continue;
     }
     if (seen.has(name)) {
@@ -75,17 +89,29 @@ export function parseAnalyzeArgs(argv: readonly string[]): ParseArgsResult {
       if (r.ok) freqs = r.freqs;
       else errors.push({ path: name, message: r.error });
     } else {
+      const rule = name === "--trials" ? TRIALS_RULE : name === "--seed" ? SEED_RULE : POINTS_RULE;
       const r = parseQuantity(value, { unit: "none" });
-      if (!r.ok) errors.push({ path: name, message: `must be ${ruleText(POINTS_RULE)}: ${r.error}` });
-      else if (!meetsRule(r.value, POINTS_RULE)) errors.push({ path: name, message: numberMessage(POINTS_RULE, r.value) });
+      if (!r.ok) errors.push({ path: name, message: `must be ${ruleText(rule)}: ${r.error}` });
+      else if (!meetsRule(r.value, rule)) errors.push({ path: name, message: numberMessage(rule, r.value) });
+      else if (name === "--trials") trials = r.value;
+      else if (name === "--seed") seed = r.value;
       else points = r.value;
     }
   }
+  if (seed !== undefined && trials === undefined) errors.push({ path: "--seed", message: "applies to the tolerance spread: give --trials N as well" });
   if (help) return { ok: true, args: { file: files[0] ?? "", help: true } };
   if (files.length === 0) errors.push({ path: "file", message: "is required: the chain document to analyse (or - for standard input)" });
   if (files.length > 1) errors.push({ path: "file", message: `only one document at a time (found ${files.length}: ${files.join(", ")})` });
   if (errors.length) return { ok: false, errors };
-  return { ok: true, args: { file: files[0], ...(freqs ? { freqs } : {}), ...(points !== undefined ? { points } : {}) } };
+  return {
+    ok: true,
+    args: {
+      file: files[0],
+      ...(freqs ? { freqs } : {}),
+      ...(points !== undefined ? { points } : {}),
+      ...(trials !== undefined ? { trials, seed: seed ?? 1 } : {}),
+    },
+  };
 }
 
 /** `10,100,1e3` or `1k, 10k, 1.5 MHz` → hertz; every item a positive frequency. */

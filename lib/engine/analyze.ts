@@ -25,7 +25,7 @@ import { db, si } from "./format";
 import { bandGrid, bandMax, bandMaxMany, logGrid } from "./grids";
 import { idealCharacteristics } from "./ideal";
 import { pathNoise, pathNoiseDensity } from "./noise";
-import { ratioAt } from "./poly";
+import { ratioMagAt } from "./poly";
 import { toMagnitudePhase } from "./response";
 import { isOpAmpKind } from "./topology";
 import { ENGINE_VERSION } from "./version";
@@ -126,9 +126,11 @@ export interface NodeFigures {
  * Band maxima of every node's response (and op-amp (+) pins) over the source band: dense samples, then
  * every node's golden-section refinements side by side (bandMaxMany), one sweep of the chain per step
  * for all of them instead of one per point. `tol` stops the refinement earlier (the tolerance spread
- * uses 1e-6: near a smooth maximum the value is then within about 1e-12 of the true peak).
+ * uses 1e-6: near a smooth maximum the value is then within about 1e-12 of the true peak); `only`, when
+ * given, limits the searches to headroom: the gain of the nodes it marks and their (+) pins, no slew
+ * (the rest stay null).
  */
-export function bandFigures(cc: CompiledChain, fLow: number, fHigh: number, tol?: number): NodeFigures[] {
+export function bandFigures(cc: CompiledChain, fLow: number, fHigh: number, tol?: number, only?: Uint8Array): NodeFigures[] {
   const grid = bandGrid(fLow, fHigh);
   const sw = cc.sweep(grid);
   const mag = (r: SweepResult, i: number, k: number) => Math.hypot(r.cumRe[i][k], r.cumIm[i][k]);
@@ -136,20 +138,21 @@ export function bandFigures(cc: CompiledChain, fLow: number, fHigh: number, tol?
   /** |V+/Vin| of op-amp stage i at f (Hz) */
   const plusRatio = (i: number, f: number) => {
     const model = cc.models[i]!;
-    const [pr, pi] = ratioAt(model.vin.p, model.den, TWO_PI * f);
-    return Math.hypot(pr, pi);
+    return ratioMagAt(model.vin.p, model.den, TWO_PI * f);
   };
   const n = cc.nodeIds.length;
   // what each search maximises: 0 |H| of node i, 1 2πf·|H| of node i, 2 |H| at the (+) pin of stage i
   const searches: { grid: Float64Array; values: Float64Array; what: 0 | 1 | 2; node: number }[] = [];
   for (let i = 0; i < n; i++) {
+    if (only && !only[i]) continue;
     const g = new Float64Array(grid.length);
-    const sl = new Float64Array(grid.length);
-    for (let k = 0; k < grid.length; k++) {
-      g[k] = mag(sw, i, k);
-      sl[k] = grid[k] === 0 ? 0 : TWO_PI * grid[k] * g[k];
+    for (let k = 0; k < grid.length; k++) g[k] = mag(sw, i, k);
+    searches.push({ grid, values: g, what: 0, node: i });
+    if (!only) {
+      const sl = new Float64Array(grid.length);
+      for (let k = 0; k < grid.length; k++) sl[k] = grid[k] === 0 ? 0 : TWO_PI * grid[k] * g[k];
+      searches.push({ grid, values: sl, what: 1, node: i });
     }
-    searches.push({ grid, values: g, what: 0, node: i }, { grid, values: sl, what: 1, node: i });
     if (cc.models[i]) {
       const p = cc.topology.parent[i];
       const pv = new Float64Array(grid.length);

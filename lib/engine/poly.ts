@@ -77,18 +77,41 @@ export function limitAtZero(num: Poly, den: Poly): number {
  */
 export function ratioAt(num: Poly, den: Poly, w: number): [number, number] {
   if (w === 0) return [limitAtZero(num, den), 0];
-  const ev = (c: Poly): [number, number] => {
-    let re = c[c.length - 1];
-    let im = 0;
-    for (let k = c.length - 2; k >= 0; k--) {
-      const nr = c[k] - im * w;
-      im = re * w;
-      re = nr;
-    }
-    return [re, im];
-  };
-  const [nr, ni] = ev(num);
-  const [dr, di] = ev(den);
+  // Horner at s = jω, written out for both polynomials (no closure: this runs per point in band searches)
+  let nr = num[num.length - 1];
+  let ni = 0;
+  for (let k = num.length - 2; k >= 0; k--) {
+    const r = num[k] - ni * w;
+    ni = nr * w;
+    nr = r;
+  }
+  let dr = den[den.length - 1];
+  let di = 0;
+  for (let k = den.length - 2; k >= 0; k--) {
+    const r = den[k] - di * w;
+    di = dr * w;
+    dr = r;
+  }
   const inv = 1 / (dr * dr + di * di);
   return [(nr * dr + ni * di) * inv, (ni * dr - nr * di) * inv];
+}
+
+/** |num(jω)/den(jω)|, as ratioAt without the array (for per-point loops). */
+export function ratioMagAt(num: Poly, den: Poly, w: number): number {
+  if (w === 0) return Math.abs(limitAtZero(num, den));
+  let nr = num[num.length - 1];
+  let ni = 0;
+  for (let k = num.length - 2; k >= 0; k--) {
+    const r = num[k] - ni * w;
+    ni = nr * w;
+    nr = r;
+  }
+  let dr = den[den.length - 1];
+  let di = 0;
+  for (let k = den.length - 2; k >= 0; k--) {
+    const r = den[k] - di * w;
+    di = dr * w;
+    dr = r;
+  }
+  return Math.hypot(nr, ni) / Math.hypot(dr, di);
 }

@@ -333,7 +333,7 @@ const num = (x: number | null | undefined) => (x === null || x === undefined || 
  * Evaluates one build already loaded into `cc` (cc.chain). `order[i]` is the index in the chain's node
  * list of topology node i (the builds keep the base chain's order).
  */
-function figuresOf(cc: CompiledChain, order: Int32Array): Figures {
+function figuresOf(cc: CompiledChain, order: Int32Array, headroom: Uint8Array): Figures {
   const chain = cc.chain;
   const nodes = Array.from(order, (k) => chain.nodes[k]);
   const n = nodes.length;
@@ -348,7 +348,7 @@ function figuresOf(cc: CompiledChain, order: Int32Array): Figures {
   if (src.kind !== "source") throw new Error("chain must start at its source");
   const amp = src.params.amplitude;
   const op = operatingPoint(chain, cc);
-  const band = bandFigures(cc, src.params.fLow, src.params.fHigh, PEAK_TOL);
+  const band = bandFigures(cc, src.params.fLow, src.params.fHigh, PEAK_TOL, headroom);
   for (let i = 1; i < n; i++) {
     const node = nodes[i];
     f.dcGain[i] = num(op.stageGain[i]);
@@ -484,6 +484,8 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
   const ends = cc.paths.map((p) => p.end);
   const rng = mulberry32(opts.seed);
   const order = Int32Array.from(nodes, (x) => chain.nodes.indexOf(x));
+  // the nodes whose band peaks the margins need: op-amp stages and converters
+  const headroom = Uint8Array.from(nodes, (x) => (isOpAmpKind(x.kind) || x.kind === "adc" ? 1 : 0));
 
   // accumulators
   const envMin = ends.map(() => new Float64Array(G).fill(Infinity));
@@ -597,7 +599,7 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
         magDb(sweep!, e, out);
         return out;
       });
-      nominal = figuresOf(cc, order);
+      nominal = figuresOf(cc, order, headroom);
       if (P === 0) {
         cornerPlan = [];
         buildSensitivity();
@@ -608,7 +610,7 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
       factors.fill(1);
       factors[k] = up ? 1 + SENS_STEP : 1 - SENS_STEP;
       load(factors);
-      (up ? sensUp : sensDown)[k] = figuresOf(cc, order);
+      (up ? sensUp : sensDown)[k] = figuresOf(cc, order, headroom);
       if (unit === sensUnits) {
         cornerPlan = planCorners();
         cornerUnits = 2 * cornerPlan.length;
@@ -620,7 +622,7 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
       const high = c % 2 === 1;
       for (let k = 0; k < P; k++) factors[k] = 1 + (high ? -pl.signs[k] : pl.signs[k]) * parts[k].tolerance;
       load(factors);
-      const v = metricOf(figuresOf(cc, order), pl.metric)[pl.nodeIndex];
+      const v = metricOf(figuresOf(cc, order, headroom), pl.metric)[pl.nodeIndex];
       if (!high) cornerVals.push({ low: v, high: NaN });
       else cornerVals[cornerVals.length - 1].high = v;
       if (unit === sensUnits + cornerUnits) {
@@ -644,7 +646,7 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
           env95[pi].add(k, v);
         }
       });
-      const fig = figuresOf(cc, order);
+      const fig = figuresOf(cc, order, headroom);
       let any = false;
       for (let i = 0; i < n; i++) {
         if (fig.clip[i]) {

@@ -10,10 +10,16 @@
  * Rates are stage-points per second (stages × points / time) from the MEDIAN time per sweep or per draw,
  * the same statistic for both paths, so that a busy machine's spikes do not decide the ratio; the mean
  * and the total are printed too. Both paths are warmed up first.
+ *  3. The tolerance spread (lib/engine/spread.ts) of the same chain at 1,000 points: 1,000 builds and
+ *     10,000 builds (envelopes, DC gain, f0, Q and worst margin of every stage per build, sensitivities
+ *     and worst-case corners first), against one sweep at the same 1,000 points measured in the same run.
+ *     It runs in this thread here; the workspace runs the same code in a worker in 20 ms slices.
  * Options: --draws N (default 1000), --ref-draws N (complex.js draws, default 50: at a few hundred ms per
- * draw the full 1,000 take minutes; pass --ref-draws 1000 for all), --points N (default 2000).
+ * draw the full 1,000 take minutes; pass --ref-draws 1000 for all), --points N (default 2000),
+ * --spread-trials N (the larger spread run, default 10000; 0 skips it).
  */
 import { compileChain, referenceResponse } from "@/lib/engine";
+import { runSpread, startSpread } from "@/lib/engine/spread";
 import { logGrid } from "@/lib/engine/grids";
 import { benchChain, perturbed, stageCount } from "./chains";
 
@@ -24,6 +30,7 @@ const arg = (name: string, fallback: number) => {
 const points = arg("points", 2000);
 const draws = arg("draws", 1000);
 const refDraws = Math.min(draws, arg("ref-draws", 50));
+const bigSpread = arg("spread-trials", 10_000);
 
 const chain = benchChain();
 const stages = stageCount(chain);
@@ -105,3 +112,38 @@ console.log(
   `targets: fast ≥ 30 M stage-points/s (${stages} × ${points} in < ${(((stages * points) / targetRate) * 1000).toFixed(2)} ms): ` +
     `${okRate ? "met" : "NOT met"}; fast ≥ 15× complex.js: ${okRatio ? "met" : "NOT met"}`,
 );
+
+// ---- 3. tolerance spread
+{
+  const sp = 1000;
+  const g1k = logGrid(chain.analysis.fMin, chain.analysis.fMax, sp);
+  let o = cc.sweep(g1k);
+  runSpread(chain, { trials: 200, seed: 99, points: sp }); // warm-up
+  const sweep1k = median(times(400, () => (o = cc.sweep(g1k, o))));
+  const spreadRun = (trials: number) => {
+    const run = startSpread(chain, { trials, seed: 1, points: sp });
+    const t0 = performance.now();
+    // the fixed part first (nominal, sensitivities, corners), then the builds
+    while (run.done < run.total - trials) run.step(1);
+    const t1 = performance.now();
+    while (!run.step(1000));
+    const t2 = performance.now();
+    const res = run.result();
+    const t3 = performance.now();
+    return { setup: t1 - t0, builds: t2 - t1, result: t3 - t2, all: t3 - t0, res };
+  };
+  const a = spreadRun(1000);
+  console.log("");
+  console.log(`3. tolerance spread: ${stages} stages, ${sp} points, ${a.res.parts.length} parts varied`);
+  console.log(`   one sweep at ${sp} points       median ${sweep1k.toFixed(3)} ms`);
+  const line = (n: number, r: ReturnType<typeof spreadRun>) =>
+    console.log(
+      `   ${String(n).padStart(6)} builds    ${(r.all / 1000).toFixed(2)} s in all ` +
+        `(sensitivities and corners ${(r.setup / 1000).toFixed(2)} s, builds ${(r.builds / 1000).toFixed(2)} s = ${(r.builds / n).toFixed(3)} ms each, ` +
+        `result ${r.result.toFixed(0)} ms); ${(r.all / sweep1k).toFixed(0)}× one sweep, ${(r.builds / n / sweep1k).toFixed(1)}× per build; ` +
+        `${(r.res.clipShare * 100).toFixed(1)} % of builds clip`,
+    );
+  line(1000, a);
+  if (bigSpread > 0) line(bigSpread, spreadRun(bigSpread));
+  console.log(`   target (issue 9): 1,000 builds in under 0.5 s: ${a.all < 500 ? "met" : "NOT met"} (${(a.all / 1000).toFixed(2)} s)`);
+}
