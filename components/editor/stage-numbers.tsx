@@ -85,7 +85,7 @@ function StageFigures({ stage, railsOf }: { stage: StageResult; railsOf?: { low:
       <dl className="grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 text-[12.5px]">
         <Row name="DC gain" testId="fig-gain">{fmtGain(stage.dcGain)}</Row>
         {stage.f0 !== null && (
-          <Row name={stage.q === null ? "Corner" : "f0 · Q"}>
+          <Row name={stage.q === null ? "Corner" : "f0 · Q"} testId="fig-f0q">
             {fmt(stage.f0, "hertz")}
             {stage.q !== null && ` · ${stage.q.toFixed(3)}`}
           </Row>
