@@ -51,7 +51,7 @@ function partOf(chain: Chain, nodeId: string): Part | undefined {
 }
 
 /** Nominal value (fixed-sign terms) or half-width (± terms) that a transfer source carries at DC. */
-function dcValue(chain: Chain, s: TransferSource): { value: number; symmetric: boolean; cause: DcTerm["cause"]; what: string } | null {
+export function dcValue(chain: Chain, s: TransferSource): { value: number; symmetric: boolean; cause: DcTerm["cause"]; what: string } | null {
   const node = chain.nodes.find((n) => n.id === s.nodeId)!;
   switch (s.type) {
     case "emf":

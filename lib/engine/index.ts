@@ -17,3 +17,12 @@ export { designLowpass, prototypeSections, prototypePoles, prototypeMagnitude, F
 export type { FilterResponse, LowpassSpec, LowpassDesign, DesignedSection, PrototypeSection, SecondOrderKind } from "./filter-design";
 export { adviseGainStaging } from "./gain-staging";
 export type { AdviceOptions, GainAdvice, SplitFigures, SplitStage, StageEdit } from "./gain-staging";
+export {
+  MAX_SAMPLES,
+  STIMULUS_KINDS,
+  minMaxDecimate,
+  planTimeDomain,
+  runWaveform,
+  stimulusWave,
+} from "./time-domain";
+export type { ClipSpan, NodeTrace, RunOptions, Stimulus, TimeDomainPlan, WaveformRun } from "./time-domain";
