@@ -16,10 +16,17 @@ export interface AnalyzeArgs {
   /** tolerance spread: builds and seed (the result gets a `spread` field) */
   trials?: number;
   seed?: number;
+  /** time-domain run: a recorded waveform CSV through the chain; stage outputs as CSV */
+  waveform?: string;
+  /** sample rate of a one-column waveform file, Hz */
+  sampleRate?: number;
+  /** where the stage-output CSV goes (default: standard output) */
+  out?: string;
   help?: boolean;
 }
 
 export const USAGE = `Usage: npm run -s analyze -- FILE.json [--freq 10,100,1e3] [--points N] [--trials N [--seed S]]
+       npm run -s analyze -- FILE.json --waveform DATA.csv [--sample-rate R] [--out OUT.csv]
 
 Analyses a complete chain document (chainwright.chain/1) and prints the analysis
 (chainwright.analysis/1) as one JSON document on standard output.
@@ -35,6 +42,13 @@ Analyses a complete chain document (chainwright.chain/1) and prints the analysis
                    and sensitivities; its envelope uses the --points grid
   --seed S         seed of the spread's builds, an integer 0 to 4294967295
                    (default 1); the same seed gives the same result
+  --waveform CSV   run a recorded source waveform through the chain instead:
+                   CSV of time,voltage rows (or one voltage column with
+                   --sample-rate); writes time and every node's output (V) as
+                   CSV, each op-amp held to its usable swing and slew rate
+  --sample-rate R  samples per second of a one-column waveform file (48k, 1M)
+  --out FILE       write the waveform CSV to FILE and print a JSON summary of
+                   where each stage clipped on standard output
 
 Exit status: 0 when the analysis ran (whatever it found), 2 for invalid input,
 with {"errors":[{"path","message"}]} on standard error, 1 if the analysis itself failed.`;
@@ -44,7 +58,8 @@ const SEED_RULE: NumberRule = { unit: "none", bound: "nonNegative", integer: { m
 
 export type ParseArgsResult = { ok: true; args: AnalyzeArgs } | { ok: false; errors: ChainIssue[] };
 
-const OPTIONS = ["--freq", "--points", "--trials", "--seed"];
+const OPTIONS = ["--freq", "--points", "--trials", "--seed", "--waveform", "--sample-rate", "--out"];
+const SAMPLE_RATE_RULE: NumberRule = { unit: "hertz", bound: "positive" };
 
 export function parseAnalyzeArgs(argv: readonly string[]): ParseArgsResult {
   const errors: ChainIssue[] = [];
@@ -54,6 +69,9 @@ export function parseAnalyzeArgs(argv: readonly string[]): ParseArgsResult {
   let points: number | undefined;
   let trials: number | undefined;
   let seed: number | undefined;
+  let waveform: string | undefined;
+  let sampleRate: number | undefined;
+  let out: string | undefined;
   let help = false;
 
   for (let i = 0; i < argv.length; i++) {
@@ -76,7 +94,13 @@ export function parseAnalyzeArgs(argv: readonly string[]): ParseArgsResult {
     if (eq >= 0) value = arg.slice(eq + 1);
     else if (i + 1 < argv.length) value = argv[++i];
     if (value === undefined || value === "") {
-      errors.push({ path: name, message: name === "--freq" ? "needs a list of frequencies, e.g. --freq 10,100,1k" : `needs a number, e.g. ${name} ${name === "--seed" ? 7 : 400}` });
+      const wants: Record<string, string> = {
+        "--freq": "needs a list of frequencies, e.g. --freq 10,100,1k",
+        "--waveform": "needs a CSV file, e.g. --waveform recording.csv",
+        "--out": "needs a file to write, e.g. --out stages.csv",
+        "--sample-rate": "needs a rate in Hz, e.g. --sample-rate 48k",
+      };
+      errors.push({ path: name, message: wants[name] ?? `needs a number, e.g. ${name} ${name === "--seed" ? 7 : 400}` });
       continue;
     }
     if (seen.has(name)) {
@@ -84,7 +108,14 @@ export function parseAnalyzeArgs(argv: readonly string[]): ParseArgsResult {
       continue;
     }
     seen.add(name);
-    if (name === "--freq") {
+    if (name === "--waveform") waveform = value;
+    else if (name === "--out") out = value;
+    else if (name === "--sample-rate") {
+      const r = parseQuantity(value, { unit: "hertz" });
+      if (!r.ok) errors.push({ path: name, message: `must be ${ruleText(SAMPLE_RATE_RULE)}: ${r.error}` });
+      else if (!meetsRule(r.value, SAMPLE_RATE_RULE)) errors.push({ path: name, message: numberMessage(SAMPLE_RATE_RULE, r.value) });
+      else sampleRate = r.value;
+    } else if (name === "--freq") {
       const r = parseFreqList(value);
       if (r.ok) freqs = r.freqs;
       else errors.push({ path: name, message: r.error });
@@ -99,6 +130,12 @@ export function parseAnalyzeArgs(argv: readonly string[]): ParseArgsResult {
     }
   }
   if (seed !== undefined && trials === undefined) errors.push({ path: "--seed", message: "applies to the tolerance spread: give --trials N as well" });
+  if (waveform === undefined) {
+    if (sampleRate !== undefined) errors.push({ path: "--sample-rate", message: "applies to a waveform file: give --waveform CSV as well" });
+    if (out !== undefined) errors.push({ path: "--out", message: "applies to a waveform run: give --waveform CSV as well" });
+  } else {
+    for (const other of ["--freq", "--points", "--trials"]) if (seen.has(other)) errors.push({ path: other, message: "does not apply to a waveform run (--waveform)" });
+  }
   if (help) return { ok: true, args: { file: files[0] ?? "", help: true } };
   if (files.length === 0) errors.push({ path: "file", message: "is required: the chain document to analyse (or - for standard input)" });
   if (files.length > 1) errors.push({ path: "file", message: `only one document at a time (found ${files.length}: ${files.join(", ")})` });
@@ -110,6 +147,9 @@ export function parseAnalyzeArgs(argv: readonly string[]): ParseArgsResult {
       ...(freqs ? { freqs } : {}),
       ...(points !== undefined ? { points } : {}),
       ...(trials !== undefined ? { trials, seed: seed ?? 1 } : {}),
+      ...(waveform !== undefined ? { waveform } : {}),
+      ...(sampleRate !== undefined ? { sampleRate } : {}),
+      ...(out !== undefined ? { out } : {}),
     },
   };
 }

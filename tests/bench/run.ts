@@ -18,7 +18,7 @@
  * draw the full 1,000 take minutes; pass --ref-draws 1000 for all), --points N (default 2000),
  * --spread-trials N (the larger spread run, default 10000; 0 skips it).
  */
-import { compileChain, referenceResponse } from "@/lib/engine";
+import { compileChain, planTimeDomain, referenceResponse, stimulusWave } from "@/lib/engine";
 import { runSpread, startSpread } from "@/lib/engine/spread";
 import { logGrid } from "@/lib/engine/grids";
 import { benchChain, perturbed, stageCount } from "./chains";
@@ -146,4 +146,28 @@ console.log(
   line(1000, a);
   if (bigSpread > 0) line(bigSpread, spreadRun(bigSpread));
   console.log(`   target (issue 9): 1,000 builds in under 0.5 s: ${a.all < 500 ? "met" : "NOT met"} (${(a.all / 1000).toFixed(2)} s)`);
+}
+
+// ---- 4. time domain
+{
+  const N = 1_000_000;
+  const fs = 2e6;
+  const tp0 = performance.now();
+  const plan = planTimeDomain(chain, fs);
+  const tPlan = performance.now() - tp0;
+  const emf = stimulusWave({ kind: "chirp", at: 0, duration: N / fs, f1: 10, f2: 2e4, amplitude: 0.05 }, fs, N);
+  plan.run(emf.subarray(0, 20_000)); // warm-up
+  const limited = times(3, () => plan.run(emf));
+  const linear = times(3, () => plan.run(emf, { limits: false }));
+  const g = logGrid(chain.analysis.fMin, chain.analysis.fMax, 2000);
+  let o = cc.sweep(g);
+  const sweep = median(times(50, () => (o = cc.sweep(g, o))));
+  const sections = plan.filters.reduce((t, f) => t + (f?.sections ?? 0), 0);
+  console.log("");
+  console.log(`4. time domain: ${stages} stages (${sections} filter sections), ${N.toLocaleString("en")} samples at ${fs / 1e6} MS/s, in this thread`);
+  console.log(`   plan (factor and discretise)  ${tPlan.toFixed(2)} ms`);
+  console.log(`   run with rails and slew       median ${median(limited).toFixed(0)} ms   (${(N / (median(limited) / 1000) / 1e6).toFixed(1)} M samples/s)`);
+  console.log(`   run unlimited (linear)        median ${median(linear).toFixed(0)} ms   limits cost ${(median(limited) / median(linear)).toFixed(2)}× the linear run`);
+  console.log(`   one 2,000-point sweep         median ${sweep.toFixed(3)} ms   a 10⁶-sample run = ${(median(limited) / sweep).toFixed(0)} sweeps`);
+  console.log(`   target (issue 10): 10⁶ samples through the chain in under 1 s: ${median(limited) < 1000 ? "met" : "NOT met"} (${(median(limited) / 1000).toFixed(2)} s)`);
 }
