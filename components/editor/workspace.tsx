@@ -13,6 +13,7 @@ import { SafetyCaution } from "@/components/safety-caution";
 import { ResponsePlot } from "@/components/plots/response-plot";
 import { ChecksPanel } from "@/components/checks/checks-panel";
 import { HeadroomTable } from "@/components/checks/headroom-table";
+import { SpreadPanel } from "@/components/spread/spread-panel";
 import { createEditorStore, type EditorStore } from "@/lib/store/editor-store";
 import { EditorProvider, useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/editor-context";
 import { startBrowserAnalysis } from "@/lib/store/analysis-driver";
@@ -47,7 +48,7 @@ export function Workspace({ chain }: WorkspaceProps) {
   );
 }
 
-type DockTab = "response" | "findings" | "headroom";
+type DockTab = "response" | "findings" | "headroom" | "spread";
 
 function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
   const store = useEditorStoreApi();
@@ -331,6 +332,7 @@ function Dock({ tab, setTab, focusNode }: { tab: DockTab; setTab: (t: DockTab) =
     { id: "response", label: "Response" },
     { id: "findings", label: `Findings${findings ? ` (${findings})` : ""}` },
     { id: "headroom", label: "Headroom" },
+    { id: "spread", label: "Spread" },
   ];
   return (
     <section className="flex min-h-0 flex-col border-t border-paper-rule bg-paper-raised">
@@ -364,6 +366,10 @@ function Dock({ tab, setTab, focusNode }: { tab: DockTab; setTab: (t: DockTab) =
           <HeadroomTable onFocusNode={focusNode} />
         </div>
       )}
+      {/* kept mounted while hidden, so a run in progress goes on and its result stays */}
+      <div id="dock-panel-spread" role="tabpanel" aria-labelledby="dock-tab-spread" hidden={tab !== "spread"} className="min-h-0 flex-1">
+        <SpreadPanel />
+      </div>
     </section>
   );
 }

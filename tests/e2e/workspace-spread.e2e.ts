@@ -1,0 +1,57 @@
+/**
+ * The Spread tab in a real browser (production build, strict content security policy): a run streams in
+ * through the worker and ends with the envelope, the histograms and the worst-case table drawn; a second,
+ * long run is cancelled part way. No timing is asserted.
+ */
+import type { Browser } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
+import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { e2eContext } from "./support/context";
+import { openWorkspace, waitForPlot } from "./workspace-support";
+
+const ctx = e2eContext();
+
+describe.skipIf(ctx.skip !== null)("tolerance spread in the workspace", () => {
+  let browser: Browser;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it("runs a spread to the end, then cancels a long one", async () => {
+    const { context, page } = await newSession(browser);
+    await page.goto("/sign-in");
+    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
+    await page.waitForURL(/\/chains$/);
+    await openWorkspace(page, "Hull vibration channel, aft bay");
+    await waitForPlot(page);
+    await page.getByRole("tab", { name: "Spread" }).click();
+
+    await page.getByTestId("spread-trials").fill("300");
+    await page.getByTestId("spread-seed").fill("7");
+    await page.getByTestId("spread-run").click();
+    await expect.poll(() => page.getByTestId("spread-status").getAttribute("data-phase"), { timeout: 120_000 }).toBe("done");
+    await expect.poll(() => page.getByTestId("spread-status").textContent()).toMatch(/300 builds/);
+    // the envelope: both bands and the nominal line have path data
+    for (const sel of ['[data-band="min to max"]', '[data-band="5 to 95 %"]', '[data-line="nominal"]']) {
+      const d = await page.getByTestId("spread-envelope").locator(sel).getAttribute("d");
+      expect(d?.length ?? 0, sel).toBeGreaterThan(20);
+    }
+    expect(await page.getByTestId("spread-histograms").locator("[data-bar]").count()).toBeGreaterThan(10);
+    expect(await page.getByTestId("spread-worst-case").locator("tbody tr").count()).toBeGreaterThan(0);
+    expect(await page.getByTestId("spread-sensitivity").locator("tbody tr").count()).toBeGreaterThan(0);
+    await expect.poll(() => page.getByTestId("spread-clip-share").textContent()).toMatch(/of 300 builds clip/);
+    await screenshot(page, "spread-done");
+
+    await page.getByTestId("spread-trials").fill("100000");
+    await page.getByTestId("spread-run").click();
+    await expect.poll(() => page.getByTestId("spread-status").textContent(), { timeout: 60_000 }).toMatch(/[1-9]\d* of 100000 builds/);
+    await page.getByTestId("spread-cancel").click();
+    await expect.poll(() => page.getByTestId("spread-status").getAttribute("data-phase"), { timeout: 30_000 }).toBe("cancelled");
+    expect(await page.getByTestId("spread-status").textContent()).toMatch(/cancelled after \d+ builds/);
+    await context.close();
+  });
+});
