@@ -23,6 +23,10 @@ const stageArb: fc.Arbitrary<Doc> = fc.oneof(
   fc.record({ kind: fc.constant("rcHighpass"), params: fc.record({ c: pos, r: pos, vbias: volts }, { requiredKeys: ["c", "r"] }) }),
   fc.record({ kind: fc.constant("sallenKeyLowpass"), params: fc.record({ r1: pos, r2: pos, c1: pos, c2: pos }), rails }),
   fc.record({ kind: fc.constant("mfbLowpass"), params: fc.record({ r1: pos, r2: pos, r3: pos, c1: pos, c2: pos }), rails }),
+  // filters: the Sallen-Key gain network (rf alone or with rg) and the high-pass sections
+  fc.record({ kind: fc.constant("sallenKeyLowpass"), params: fc.record({ r1: pos, r2: pos, c1: pos, c2: pos, rf: pos }), rails }),
+  fc.record({ kind: fc.constant("sallenKeyHighpass"), params: fc.record({ c1: pos, c2: pos, r1: pos, r2: pos, rf: pos, rg: pos }, { requiredKeys: ["c1", "c2", "r1", "r2"] }).filter((p) => p.rg === undefined || p.rf !== undefined), rails }),
+  fc.record({ kind: fc.constant("mfbHighpass"), params: fc.record({ c1: pos, c2: pos, c3: pos, r1: pos, r2: pos, vref: volts }, { requiredKeys: ["c1", "c2", "c3", "r1", "r2"] }), rails }),
 );
 
 /** A valid chain: a source, a tree of stages (each fed by an earlier node), and ADCs on some of them. */
