@@ -1,7 +1,9 @@
 import "server-only";
+import { listUserTeams } from "@/db/queries/teams";
+import { assertTeam, teamRights } from "@/lib/auth/permissions";
 import { validateDraft } from "@/lib/chain/schema";
 import { CHAIN_FORMAT } from "@/lib/chain/types";
-import { ValidationError, type FieldError } from "./errors";
+import { ApiError, ValidationError, type FieldError } from "./errors";
 
 /** The smallest draft a new chain starts from when no document is given. */
 export function starterDraft(name: string): Record<string, unknown> {
@@ -29,4 +31,18 @@ export function checkDraftDocument(document: unknown, name: string | undefined):
   const draftName = isRecord(draft) && typeof draft.name === "string" ? draft.name : name;
   if (!draftName) throw new ValidationError([{ path: "name", message: "a chain needs a name (1–200 characters)" }]);
   return { draft, name: draftName };
+}
+
+/**
+ * The team a new chain goes into: the one named, if the caller may create chains there (else the
+ * permission module's refusal), or the caller's first team where they may.
+ */
+export function teamForNewChain(userId: string, teamId: string | undefined): string {
+  if (teamId) {
+    assertTeam(userId, "team:create-chain", teamId);
+    return teamId;
+  }
+  const first = listUserTeams(userId).find((t) => teamRights(userId, t.id).has("team:create-chain"))?.id;
+  if (!first) throw new ApiError(403, "You are in no team where you may create chains.");
+  return first;
 }

@@ -45,6 +45,15 @@ import * as invitationRoute from "@/app/api/invitations/[token]/route";
 import * as acceptRoute from "@/app/api/invitations/[token]/accept/route";
 import * as analyzeRoute from "@/app/api/analyze/route";
 import * as mailboxRoute from "@/app/api/mailbox/route";
+import * as bomRoute from "@/app/api/chains/[id]/outputs/bom/route";
+import * as bringUpRoute from "@/app/api/chains/[id]/outputs/bring-up/route";
+import * as plotDataRoute from "@/app/api/chains/[id]/outputs/plot-data/route";
+import * as firmwareRoute from "@/app/api/chains/[id]/outputs/firmware/route";
+import * as chainExportRoute from "@/app/api/chains/[id]/export/route";
+import * as chainImportRoute from "@/app/api/chains/import/route";
+import { getDb } from "@/db/connection";
+import { chains as chainsTable } from "@/db/schema";
+import { eq } from "drizzle-orm";
 import { getChainRow } from "@/db/queries/chains";
 import { createInvitation } from "@/db/queries/invitations";
 import type { User } from "@/db/schema";
@@ -73,6 +82,11 @@ interface RouteCase {
 }
 
 const h = (f: unknown) => f as Handler;
+/** Hand-offs need a complete chain: the world's chain gets the hull demo as its document. */
+const completed = (w: TeamWorld) => {
+  getDb().update(chainsTable).set({ document: JSON.stringify(hullVibration) }).where(eq(chainsTable.id, w.chainId)).run();
+  return w.chainId;
+};
 const version = (w: TeamWorld) => getChainRow(w.chainId)!.version;
 
 // Expected statuses, columns: owner editor reviewer viewer member admin other signedOut
@@ -269,6 +283,16 @@ const ROUTES: RouteCase[] = [
     name: "POST /api/analyze",
     expect: "200 200 200 200 200 200 200 401",
     call: () => ({ handler: h(analyzeRoute.POST), request: jsonRequest("POST", "/api/analyze", { chain: hullVibration, points: 20 }), context: undefined }),
+  },
+  { name: "GET /api/chains/:id/outputs/bom", expect: VIEW, call: (w) => ({ handler: h(bomRoute.GET), request: jsonRequest("GET", "/x?format=json"), context: idContext(completed(w)) }) },
+  { name: "GET /api/chains/:id/outputs/bring-up", expect: VIEW, call: (w) => ({ handler: h(bringUpRoute.GET), request: jsonRequest("GET", "/x?f=10,1k"), context: idContext(completed(w)) }) },
+  { name: "GET /api/chains/:id/outputs/plot-data", expect: VIEW, call: (w) => ({ handler: h(plotDataRoute.GET), request: jsonRequest("GET", "/x?table=noise"), context: idContext(completed(w)) }) },
+  { name: "GET /api/chains/:id/outputs/firmware", expect: VIEW, call: (w) => ({ handler: h(firmwareRoute.GET), request: jsonRequest("GET", "/x?format=h"), context: idContext(completed(w)) }) },
+  { name: "GET /api/chains/:id/export", expect: VIEW, call: (w) => ({ handler: h(chainExportRoute.GET), request: jsonRequest("GET", "/x"), context: idContext(w.chainId) }) },
+  {
+    name: "POST /api/chains/import (into the team)",
+    expect: "201 201 403 404 201 201 404 401",
+    call: (w) => ({ handler: h(chainImportRoute.POST), request: jsonRequest("POST", "/api/chains/import", { document: hullVibration, teamId: w.teamId }), context: undefined }),
   },
   {
     name: "GET /api/mailbox (stand-in switched off)",

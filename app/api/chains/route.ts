@@ -1,16 +1,15 @@
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { insertChain, listChainsForUser } from "@/db/queries/chains";
-import { listUserTeams } from "@/db/queries/teams";
-import { checkDraftDocument, starterDraft } from "@/lib/api/chain-documents";
+import { checkDraftDocument, starterDraft, teamForNewChain } from "@/lib/api/chain-documents";
 import { chainListState, chainView } from "@/lib/api/chain-view";
-import { ApiError, ValidationError } from "@/lib/api/errors";
+import { ValidationError } from "@/lib/api/errors";
 import { apiRoute } from "@/lib/api/handler";
 import { parseBody, validate } from "@/lib/api/validate";
 import { searchLibrary } from "@/db/queries/library";
 import { libraryApiQuery } from "@/lib/api/library-query";
 import { requireUser } from "@/lib/auth/guard";
-import { assertTeam, chainActionsFor, teamRights } from "@/lib/auth/permissions";
+import { chainActionsFor } from "@/lib/auth/permissions";
 
 /**
  * GET /api/chains: every chain the caller may see, newest change first. With any of `q`, `teamId`,
@@ -61,13 +60,7 @@ const createSchema = z.object({
 export const POST = apiRoute(async (request: Request) => {
   const user = await requireUser();
   const body = await parseBody(request, createSchema);
-  let teamId = body.teamId;
-  if (teamId) {
-    assertTeam(user.id, "team:create-chain", teamId);
-  } else {
-    teamId = listUserTeams(user.id).find((t) => teamRights(user.id, t.id).has("team:create-chain"))?.id;
-    if (!teamId) throw new ApiError(403, "You are in no team where you may create chains.");
-  }
+  const teamId = teamForNewChain(user.id, body.teamId);
   const document = body.document === undefined ? starterDraft(body.name ?? "Untitled chain") : body.document;
   const { draft, name } = checkDraftDocument(document, body.name);
   const chain = insertChain({ teamId, name, document: draft, userId: user.id });
