@@ -12,7 +12,7 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
   if (!user) redirect("/sign-in");
   return (
     <div className="flex min-h-screen flex-col">
-      <header className="border-b border-paper-rule bg-paper-raised">
+      <header className="border-b border-paper-rule bg-paper-raised print:hidden">
         <div className="mx-auto flex max-w-6xl items-center justify-between gap-4 px-6 py-2.5">
           <div className="flex items-center gap-6">
             <Wordmark href="/chains" />
@@ -40,7 +40,7 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
         </div>
       </header>
       {/* The chain workspace (marked data-workspace) uses the full width and height under the header. */}
-      <main className="mx-auto w-full max-w-6xl flex-1 px-6 py-8 has-[>[data-workspace]]:max-w-none has-[>[data-workspace]]:p-0">{children}</main>
+      <main className="mx-auto w-full max-w-6xl flex-1 px-6 py-8 print:max-w-none print:p-0 has-[>[data-workspace]]:max-w-none has-[>[data-workspace]]:p-0">{children}</main>
     </div>
   );
 }

@@ -6,27 +6,12 @@
  */
 import { useMemo, useState } from "react";
 import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
-import { StatusMark, type Status } from "@/components/ui/status-mark";
+import { StatusMark } from "@/components/ui/status-mark";
 import { useEditor, useEditorActions } from "@/lib/store/editor-context";
-import type { NodeKind } from "@/lib/chain/types";
 import { fmt, fmtVolts } from "@/components/editor/format";
-import { marginOf } from "@/components/editor/stage-figures";
+import { headroomRows, type HeadroomRow } from "@/lib/handoff/headroom";
 
-export interface HeadroomRow {
-  id: string;
-  name: string;
-  kind: NodeKind;
-  status: Status | null;
-  dcMin: number | null;
-  dcMax: number | null;
-  peakMin: number | null;
-  peakMax: number | null;
-  low: number | null;
-  high: number | null;
-  margin: number | null;
-  share: number | null;
-  slew: number | null;
-}
+export type { HeadroomRow } from "@/lib/handoff/headroom";
 
 const STATUS_RANK: Record<string, number> = { clip: 0, tight: 1, ok: 2 };
 const col = createColumnHelper<HeadroomRow>();
@@ -54,36 +39,7 @@ const columns = [
 
 export function useHeadroomRows(): HeadroomRow[] {
   const live = useEditor((s) => s.live);
-  return useMemo(() => {
-    if (!live?.chain) return [];
-    const rows: HeadroomRow[] = [];
-    for (const n of live.chain.nodes) {
-      const name = n.label ? `${n.id} ${n.label}` : n.id;
-      const s = live.stageById[n.id];
-      if (s && s.status) {
-        const m = marginOf(s);
-        rows.push({
-          id: n.id, name, kind: n.kind, status: s.status,
-          dcMin: s.dcOut?.min ?? null, dcMax: s.dcOut?.max ?? null,
-          peakMin: s.peakOut?.min ?? null, peakMax: s.peakOut?.max ?? null,
-          low: s.usable?.low ?? null, high: s.usable?.high ?? null,
-          margin: m?.volts ?? null, share: m?.share ?? null, slew: s.slewNeeded ?? null,
-        });
-      }
-      const a = live.adcById[n.id] as (typeof live.adcById)[string] & { dcIn?: { min: number; max: number } | null; peakIn?: { min: number; max: number } | null };
-      if (a && n.kind === "adc") {
-        const m = a.peakIn ? marginOf({ peakOut: a.peakIn, usable: { low: n.params.vinLow, high: n.params.vinHigh } }) : null;
-        rows.push({
-          id: n.id, name, kind: n.kind, status: a.status,
-          dcMin: a.dcIn?.min ?? null, dcMax: a.dcIn?.max ?? null,
-          peakMin: a.peakIn?.min ?? null, peakMax: a.peakIn?.max ?? null,
-          low: n.params.vinLow, high: n.params.vinHigh,
-          margin: m?.volts ?? null, share: m?.share ?? null, slew: null,
-        });
-      }
-    }
-    return rows;
-  }, [live]);
+  return useMemo(() => (live?.chain ? headroomRows(live.chain.nodes, live.stageById, live.adcById) : []), [live]);
 }
 
 export function HeadroomTable({ onFocusNode }: { onFocusNode?: (id: string) => void }) {

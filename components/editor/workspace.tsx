@@ -23,6 +23,7 @@ import { ApiFailure, createChain, fetchChain, saveChain, type ChainDto } from "@
 import { ChainCanvas } from "./chain-canvas";
 import { Shelf } from "./shelf";
 import { Inspector } from "./inspector";
+import { OutputsLinks } from "@/components/outputs/outputs-link";
 import { SaveIndicator } from "./save-indicator";
 import { commandFor, isTypingTarget, KEY_TABLE, type Command } from "./shortcuts";
 import { LiveProbe } from "./live-probe";
@@ -203,6 +204,7 @@ function WorkspaceBar({ role, run, keysOpen, setKeysOpen }: { role: ChainDto["ro
           <span><span aria-hidden className="text-status-tight">▲ </span>{tights} with little margin</span>
         ) : null}
       </span>
+      <OutputsLinks />
       <div className="ml-auto flex items-center gap-0.5" role="toolbar" aria-label="Canvas commands">
         {!readOnly && (
           <>

@@ -10,4 +10,8 @@ export { buildFirmwareScaling, codeOf, measurandOf, scalingHeader, sourceVoltsOf
 export type { FirmwareScaling, ScalingResult } from "./firmware";
 export { bomCsv, bomGroupsCsv, bringUpCsv, plotCsv, PLOT_TABLES, toCsv } from "./csv";
 export type { PlotTable } from "./csv";
-export { signalOrder } from "./order";
+export { nodeTitle, signalOrder } from "./order";
+export { headroomRows, marginOf } from "./headroom";
+export type { HeadroomRow } from "./headroom";
+export { pathCurves, safetyCalls } from "./report";
+export type { CurveSet } from "./report";

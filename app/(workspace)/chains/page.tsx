@@ -42,9 +42,14 @@ export default async function ChainsPage({ searchParams }: Props) {
           <p className="mt-1 text-sm text-graphite-500">Every chain your teams hold and every chain shared with you.</p>
         </div>
         {creatableTeams.length > 0 && (
-          <Link href="/chains/new" className={buttonClass("primary")}>
-            New chain
-          </Link>
+          <div className="flex items-center gap-2">
+            <Link href="/chains/import" className={buttonClass("secondary")}>
+              Import a chain file
+            </Link>
+            <Link href="/chains/new" className={buttonClass("primary")}>
+              New chain
+            </Link>
+          </div>
         )}
       </div>
       <SectionNav current="/chains" />

@@ -1,0 +1,110 @@
+import type { Browser } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
+import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { e2eContext } from "./support/context";
+import { openWorkspace, waitForSaveState } from "./workspace-support";
+
+const ctx = e2eContext();
+
+/** Pages of a PDF Chromium wrote: its page objects (`/Type /Page`, not `/Pages`), and the first one's size. */
+function pdfPages(pdf: Buffer): { count: number; firstBox: number[] | null } {
+  const text = pdf.toString("latin1");
+  const count = (text.match(/\/Type\s*\/Page(?![a-z])/g) ?? []).length;
+  const box = /\/MediaBox\s*\[\s*([\d.\s-]+)\]/.exec(text);
+  return { count, firstBox: box ? box[1].trim().split(/\s+/).map(Number) : null };
+}
+
+describe.skipIf(ctx.skip !== null)("hand-offs: outputs page, printed design report, chain import (production build)", () => {
+  let browser: Browser;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it("prints the design report to PDF on A4 and Letter with its plots as images and every section", async () => {
+    const { context, page } = await newSession(browser);
+    await signInWithPassword(page, DEMO_PEOPLE.reviewer.email, DEMO_PASSWORD);
+    await page.waitForURL(/\/chains$/);
+    const id = await openWorkspace(page, "Hull vibration channel, aft bay");
+    await page.getByTestId("outputs-link").click();
+    await page.waitForURL(new RegExp(`/chains/${id}/outputs$`));
+    await expect(page.getByTestId("bring-up-table").locator("tbody tr").count()).resolves.toBe(4);
+    await expect(page.getByTestId("scaling-header").textContent()).resolves.toMatch(/#define CW_ADC_SOURCE_VOLTS_PER_CODE/);
+
+    await page.goto(`/chains/${id}/report`);
+    await page.locator('[data-plots="ready"]').waitFor({ timeout: 30_000 });
+    const images = page.getByTestId("design-report").locator("figure img");
+    await expect(images.count()).resolves.toBe(1);
+    const src = await images.first().getAttribute("src");
+    expect(src?.startsWith("data:image/png;base64,")).toBe(true);
+    const text = (await page.getByTestId("design-report").textContent()) ?? "";
+    for (const needle of ["Design report", "Hull vibration channel, aft bay", "Purpose and notes", "Headroom", "Noise budget", "Warnings", "Bill of materials", "Bring-up", "Converter scaling", "Review record", "Revision"]) {
+      expect(text, needle).toContain(needle);
+    }
+    await expect(page.getByTestId("report-cards").locator("li").count()).resolves.toBe(5);
+    await screenshot(page, "design-report");
+
+    const a4 = pdfPages(await page.pdf({ preferCSSPageSize: true, printBackground: true }));
+    expect(a4.count).toBeGreaterThanOrEqual(2);
+    expect(a4.count).toBeLessThanOrEqual(8);
+    // A4 is 595.28 × 841.89 points
+    expect(Math.round(a4.firstBox![2])).toBe(595);
+    expect(Math.round(a4.firstBox![3])).toBe(842);
+
+    await page.goto(`/chains/${id}/report?paper=letter`);
+    await page.locator('[data-plots="ready"]').waitFor({ timeout: 30_000 });
+    const letter = pdfPages(await page.pdf({ preferCSSPageSize: true, printBackground: true }));
+    expect(letter.count).toBeGreaterThanOrEqual(2);
+    expect(letter.firstBox!.slice(2).map(Math.round)).toEqual([612, 792]);
+    await context.close();
+  });
+
+  it("imports a chain file: names every problem first, writes nothing until asked, then opens the new chain", async () => {
+    const { context, page } = await newSession(browser);
+    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
+    await page.waitForURL(/\/chains$/);
+    const id = await openWorkspace(page, "Turbidity photodiode channel");
+    const exported = await page.request.get(`/api/chains/${id}/export`);
+    expect(exported.status()).toBe(200);
+    const doc = (await exported.json()) as { name: string; nodes: { params: Record<string, unknown> }[] };
+
+    await page.goto("/chains");
+    await page.getByRole("link", { name: "Import a chain file" }).click();
+    await page.waitForURL(/\/chains\/import$/);
+    const broken = structuredClone(doc);
+    broken.nodes[1].params.r1 = -10;
+    await page.locator("#import-text").fill(JSON.stringify(broken));
+    await page.getByRole("button", { name: /^Check/ }).click();
+    const errors = page.getByTestId("import-errors");
+    await errors.waitFor();
+    await expect(errors.textContent()).resolves.toContain("document.nodes[1].params.r1");
+    await expect(page.getByRole("button", { name: "Import as a new chain" }).isDisabled()).resolves.toBe(true);
+
+    const copy = { ...doc, name: `Imported turbidity ${Date.now()}` };
+    await page.locator("#import-text").fill(JSON.stringify(copy));
+    await page.getByRole("button", { name: /^Check/ }).click();
+    await page.getByTestId("import-preview").waitFor();
+    await expect(page.getByTestId("import-preview").textContent()).resolves.toContain("Complete");
+    await page.getByRole("button", { name: "Import as a new chain" }).click();
+    await page.waitForURL(/\/chains\/[0-9a-f-]{36}$/);
+    await page.getByTestId("workspace").waitFor();
+    await expect(page.getByTestId("chain-name").textContent()).resolves.toBe(copy.name);
+    await screenshot(page, "imported-chain");
+    await context.close();
+  });
+
+  it("the read-only link opens the chain with every edit off, even for someone who may edit it", async () => {
+    const { context, page } = await newSession(browser);
+    await signInWithPassword(page, DEMO_PEOPLE.admin.email, DEMO_PASSWORD);
+    await page.waitForURL(/\/chains$/);
+    const id = await openWorkspace(page, "Hull vibration channel, aft bay");
+    await page.goto(`/chains/${id}/view`);
+    await page.getByTestId("workspace").waitFor();
+    await waitForSaveState(page, "read-only");
+    await expect(page.getByRole("button", { name: "Undo" }).count()).resolves.toBe(0);
+    await context.close();
+  });
+});
