@@ -21,7 +21,7 @@ import { fmt, fmtVolts } from "@/components/editor/format";
 import { StatusMark } from "@/components/ui/status-mark";
 import { SafetyCaution } from "@/components/safety-caution";
 import { ReviewBadge } from "@/components/review/review-badge";
-import { DECISION_WORDS } from "@/components/review/review-words";
+import { DECISION_WORDS, REVIEW_LOOK } from "@/components/review/review-words";
 import { ChainCards } from "./chain-cards";
 import { ReportPlots } from "./report-plots";
 
@@ -280,7 +280,7 @@ export function DesignReport(p: ReportProps) {
 
       <Section title="Review record" id="r-review">
         {p.reviews.length === 0 ? (
-          <p>No review has been asked for.</p>
+          <p>No review request is recorded for this chain; its review state reads {REVIEW_LOOK[p.reviewState]?.word.toLowerCase() ?? p.reviewState}.</p>
         ) : (
           <table className="border-collapse text-[11.5px]" data-testid="report-reviews">
             <thead>
@@ -334,7 +334,7 @@ export function BringUpTable({ sheet }: { sheet: ReturnType<typeof buildBringUpS
             DC nominal
           </th>
           <th scope="col" className={th}>
-            DC interval
+            DC spread
           </th>
           {sheet.frequencies.map((f) => (
             <th key={f} scope="col" className={th}>
@@ -349,7 +349,9 @@ export function BringUpTable({ sheet }: { sheet: ReturnType<typeof buildBringUpS
             <td className={td}>{tp.tp}</td>
             <td className={`${td} font-sans`}>{tp.where}</td>
             <td className={td}>{v(tp.dcNominal)}</td>
-            <td className={td}>{tp.dcInterval ? `${v(tp.dcInterval.min)} … ${v(tp.dcInterval.max)}` : "unbounded"}</td>
+            <td className={td} title={tp.dcInterval ? `${tp.dcInterval.min} V to ${tp.dcInterval.max} V` : undefined}>
+              {tp.dcInterval ? `± ${v((tp.dcInterval.max - tp.dcInterval.min) / 2)}` : "unbounded"}
+            </td>
             {tp.ac.map((a) => (
               <td key={a.f} className={td}>
                 {a.amplitude === null ? "—" : `${fmtVolts(a.amplitude)} pk, ${deg(a.phaseDeg)}`}

@@ -31,6 +31,8 @@ describe.skipIf(ctx.skip !== null)("hand-offs: outputs page, printed design repo
     const id = await openWorkspace(page, "Hull vibration channel, aft bay");
     await page.getByTestId("outputs-link").click();
     await page.waitForURL(new RegExp(`/chains/${id}/outputs$`));
+    await page.getByTestId("outputs-page").waitFor();
+    await screenshot(page, "outputs-page");
     await expect(page.getByTestId("bring-up-table").locator("tbody tr").count()).resolves.toBe(4);
     await expect(page.getByTestId("scaling-header").textContent()).resolves.toMatch(/#define CW_ADC_SOURCE_VOLTS_PER_CODE/);
 
