@@ -63,9 +63,9 @@ export default function LandingPage() {
         </h2>
         <p className="mt-2 text-graphite-700">
           Reviewers see the margins and approve or ask for changes, with comments on the chain and its whole history.
-          The same analysis runs from the command line and the REST API. Hand-offs for firmware (scaling from codes
-          back to sensor units), test (the expected voltage at each test point) and purchasing (a bill of materials
-          in standard values) are planned.
+          The same analysis runs from the command line and the REST API. Each chain hands off to firmware (scaling
+          from converter codes back to sensor units, as JSON or a C header), to test (the expected DC and AC at each
+          test point), to purchasing (a bill of materials with standard values) and to print (a design report).
         </p>
       </section>
     </div>
