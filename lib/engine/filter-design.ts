@@ -180,7 +180,8 @@ export interface LowpassSpec {
   rippleDb?: number | null;
   /** magnitude of the overall passband gain (default 1) */
   gain?: number;
-  /** how the second-order sections are built (first-order: an active lossy integrator) */
+  /** how the second-order sections are built (first-order: an active lossy integrator); a Sallen-Key
+   * section carrying gain gets the rf/rg network (K = 1 + rf/rg) */
   secondOrder: SecondOrderKind;
   /** series, ranges, floor, tolerance, as for solveStage (gain, f0 and q are set per section) */
   parts?: Omit<SolveTargets, "gain" | "f0" | "q">;
@@ -219,17 +220,14 @@ export function designLowpass(spec: LowpassSpec): LowpassDesign {
   const proto = prototypeSections(spec.response, spec.order, spec.rippleDb);
   const sections: DesignedSection[] = [];
   let problem: string | null = null;
-  if (spec.secondOrder === "sallenKeyLowpass" && proto[0].order === 2 && Math.abs(gain - 1) > 1e-12) {
-    problem = "Unity-gain Sallen-Key sections carry no gain and this order has no first-order section: use MFB sections, or a gain stage before the filter.";
-  }
   proto.forEach((p, i) => {
     const kind: SolvableKind = p.order === 1 ? "lossyIntegrator" : spec.secondOrder;
     const g = i === 0 ? gain : 1;
     const f0 = p.f0 * spec.cornerHz;
-    const solve = solveStage(kind, { ...spec.parts, f0, q: p.q, gain: kind === "sallenKeyLowpass" ? null : g });
+    const solve = solveStage(kind, { ...spec.parts, f0, q: p.q, gain: g });
     const params = solve.sets[0]?.params ?? null;
     if (!params && !problem) problem = `Section ${i + 1} (f0 ${Number(f0.toPrecision(4))} Hz${p.q ? `, Q ${p.q.toFixed(3)}` : ""}): ${solve.problem}`;
-    sections.push({ position: i + 1, kind, order: p.order, f0, q: p.q, gain: kind === "sallenKeyLowpass" ? 1 : g, solve, params });
+    sections.push({ position: i + 1, kind, order: p.order, f0, q: p.q, gain: g, solve, params });
   });
   return { spec, sections, rule: SECTION_ORDER_RULE, problem };
 }

@@ -25,7 +25,10 @@
 import type { AnalysisResult, Chain, ChainNode, OpAmpNode, StageResult } from "../chain/types";
 import { analyzeChain } from "./analyze";
 import { solveStage, type SolvableKind, type SolvedParams } from "./solve";
-import { idealCharacteristics } from "./ideal";
+import { idealCharacteristics, sallenKeyGain } from "./ideal";
+
+/** Sections that block DC: the output's DC level is their vbias / vref, whatever comes in. */
+const DC_BLOCKING = new Set(["rcHighpass", "sallenKeyHighpass", "mfbHighpass"]);
 
 export interface AdviceOptions {
   /** the converter the path ends at (default: the first path that ends at an ADC) */
@@ -102,6 +105,11 @@ function stageGain(n: ChainNode): number | null {
       return -n.params.r2 / n.params.r1;
     case "noninverting":
       return n.params.rf == null || n.params.rg == null ? 1 : 1 + n.params.rf / n.params.rg;
+    case "sallenKeyLowpass":
+    case "sallenKeyHighpass":
+      return sallenKeyGain(n.params); // passband K = 1 + rf/rg
+    case "mfbHighpass":
+      return -n.params.c1 / n.params.c2; // H(∞)
     case "source":
     case "adc":
       return null;
@@ -203,12 +211,22 @@ function plan(
   const steps: PlanStep[] = [];
   const vbias = new Map<number, number>();
   let binding: string | null = null;
-  const hpAfter = (i: number) => nodes.slice(i + 1, -1).some((n) => n.kind === "rcHighpass");
+  const hpAfter = (i: number) => nodes.slice(i + 1, -1).some((n) => DC_BLOCKING.has(n.kind));
+  /** |gain| of the fixed stages after i (as measured in place), which the converter also sees */
+  const downstream = (i: number) => nodes.slice(i + 1, -1).reduce((g, n, k) => (isGainNode(n) ? g : g * Math.abs(stageGain(n) ?? 1) * loss[i + 1 + k]), 1);
 
   for (let i = 1; i < nodes.length - 1; i++) {
     const n = nodes[i];
     if (!isGainNode(n)) {
-      a *= loss[i];
+      const k = Math.abs(stageGain(n) ?? 1);
+      a *= loss[i] * k;
+      if (n.kind === "sallenKeyLowpass" && k !== 1) {
+        c = k * c - (k - 1) * n.params.vref; // DC form with rg to vref
+        d *= k;
+      } else if (n.kind === "sallenKeyHighpass" || n.kind === "mfbHighpass") {
+        c = n.params.vref;
+        d = 0;
+      }
       if (n.kind === "rcHighpass") {
         c = n.params.vbias;
         d = 0;
@@ -228,8 +246,8 @@ function plan(
     let win = squeezeW(shrink(usable.lo, usable.hi, margin), i);
     let dcReset = false;
     for (let j = i + 1; j < nodes.length - 1 && !isGainNode(nodes[j]); j++) {
-      if (nodes[j].kind === "rcHighpass") {
-        dcReset = true;
+      if (DC_BLOCKING.has(nodes[j].kind) || Math.abs(stageGain(nodes[j]) ?? 1) !== 1) {
+        dcReset = true; // the DC or the scale changes there: the converter's window no longer applies here
         break;
       }
       const u = usableOf(chain, nodes[j]);
@@ -240,7 +258,7 @@ function plan(
     // gain still needed to fill the converter: its half-width over (DC part that reaches it + AC peak)
     const dReach = hpAfter(i) ? 0 : d;
     const adcHalf = (adcWin.hi - adcWin.lo) / 2;
-    const need = adcHalf / (dReach + a);
+    const need = adcHalf / ((dReach + a) * downstream(i));
     const s = signOf(n);
     const vr = n.rails;
     let g = need;

@@ -28,7 +28,8 @@
  * above, noise, bias currents and stray capacitance grow), capacitors 100 pF … 1 µF from E12, resistors
  * from E24, 2 % allowed error on each target.
  */
-import type { ChainNode, NodeKind } from "../chain/types";
+import { CHAIN_FORMAT, type Chain, type ChainNode, type NodeKind } from "../chain/types";
+import { compileChain } from "./compile-chain";
 import { E_SERIES, neighbours, type ESeries } from "../units/eseries";
 import { TWO_PI } from "./constants";
 import { idealCharacteristics } from "./ideal";
@@ -41,7 +42,9 @@ export type SolvableKind =
   | "rcLowpass"
   | "rcHighpass"
   | "sallenKeyLowpass"
-  | "mfbLowpass";
+  | "mfbLowpass"
+  | "sallenKeyHighpass"
+  | "mfbHighpass";
 
 export type TargetName = "gain" | "f0" | "q";
 
@@ -130,9 +133,14 @@ export const SOLVE_TARGETS: Readonly<Record<SolvableKind, readonly TargetName[]>
   integrator: ["f0"],
   rcLowpass: ["f0"],
   rcHighpass: ["f0"],
-  sallenKeyLowpass: ["f0", "q"],
+  sallenKeyLowpass: ["gain", "f0", "q"],
   mfbLowpass: ["gain", "f0", "q"],
+  sallenKeyHighpass: ["gain", "f0", "q"],
+  mfbHighpass: ["gain", "f0", "q"],
 };
+
+/** Kinds whose gain target may be left out: it then means 1 (the unity-gain Sallen-Key). */
+const GAIN_DEFAULTS_TO_ONE = new Set<SolvableKind>(["sallenKeyLowpass", "sallenKeyHighpass"]);
 
 /** The params a solve sets, per kind (everything else — vref, vbias, rails, part — is kept). */
 export const SOLVED_PARAMS: Readonly<Record<SolvableKind, readonly string[]>> = {
@@ -142,8 +150,10 @@ export const SOLVED_PARAMS: Readonly<Record<SolvableKind, readonly string[]>> = 
   integrator: ["r1", "c2"],
   rcLowpass: ["r", "c"],
   rcHighpass: ["r", "c"],
-  sallenKeyLowpass: ["r1", "r2", "c1", "c2"],
+  sallenKeyLowpass: ["r1", "r2", "c1", "c2", "rf", "rg"],
   mfbLowpass: ["r1", "r2", "r3", "c1", "c2"],
+  sallenKeyHighpass: ["c1", "c2", "r1", "r2", "rf", "rg"],
+  mfbHighpass: ["c1", "c2", "c3", "r1", "r2"],
 };
 
 export const isSolvableKind = (k: NodeKind | string): k is SolvableKind => k in SOLVE_TARGETS;
@@ -189,10 +199,13 @@ export function passbandGain(kind: SolvableKind, p: SolvedParams): number | null
     case "mfbLowpass":
       return num(p, "r2") / num(p, "r1");
     case "noninverting":
+    case "sallenKeyLowpass":
+    case "sallenKeyHighpass":
       return p.rf == null || p.rg == null ? 1 : 1 + num(p, "rf") / num(p, "rg");
+    case "mfbHighpass":
+      return num(p, "c1") / num(p, "c2"); // H(∞) = −c1/c2
     case "rcLowpass":
     case "rcHighpass":
-    case "sallenKeyLowpass":
       return 1;
     case "integrator":
       return null;
@@ -215,8 +228,13 @@ export function inputImpedance(kind: SolvableKind, p: SolvedParams): number | nu
     case "rcHighpass":
       return num(p, "r"); // |r + 1/(jωc)| ≥ r, the limit at high frequency (unloaded section)
     case "sallenKeyLowpass":
+      if (p.rf != null && p.rg != null) return engineInputImpedance(kind, p);
+      break;
     case "mfbLowpass":
       break;
+    case "sallenKeyHighpass":
+    case "mfbHighpass":
+      return engineInputImpedance(kind, p);
   }
   const { f0 } = idealCharacteristics(asNode(kind, p));
   const r1 = num(p, "r1");
@@ -255,6 +273,35 @@ export function inputImpedance(kind: SolvableKind, p: SolvedParams): number | nu
 }
 
 /** Gain, f0, Q and (unless `withImpedance` is false, when it is left null) the input-impedance floor. */
+/**
+ * min |Zin| over f0/1000 … 1000·f0 (40 points per decade) from the engine's own input admittance
+ * (compileChain, ideal op-amp), for the kinds without a closed form here. For a high-pass section |Zin|
+ * keeps falling above f0 (the input capacitor), so the floor then holds up to 1000·f0.
+ */
+function engineInputImpedance(kind: SolvableKind, p: SolvedParams): number {
+  const node = { id: "u", kind, params: { rf: null, rg: null, ...p, vref: 0 }, rails: { low: -1, high: 1 } } as unknown as ChainNode;
+  const src = { id: "s", kind: "source", params: { dc: 0, dcSpread: 0, amplitude: 1, fLow: 1, fHigh: 2, resistance: 0, noiseDensity: 0, safety: "low-voltage" } } as ChainNode;
+  const chain: Chain = {
+    format: CHAIN_FORMAT,
+    name: "solve",
+    notes: "",
+    analysis: { fMin: 1, fMax: 2, points: 2, temperatureK: 300, noiseLow: 1, noiseHigh: null, aliasTargetDb: null },
+    tolerances: { resistor: 0, capacitor: 0 },
+    parts: {},
+    nodes: [src, node],
+    edges: [{ from: "s", to: "u" }],
+  };
+  const f0 = idealCharacteristics(node).f0 as number;
+  const n = 2 * FREQ_DECADES * FREQ_PER_DECADE;
+  const freqs = new Float64Array(n + 1).map((_, i) => f0 * 10 ** (i / FREQ_PER_DECADE - FREQ_DECADES));
+  const cc = compileChain(chain);
+  const sw = cc.sweep(freqs);
+  const k = cc.nodeIds.indexOf("u");
+  let min = Infinity;
+  for (let i = 0; i <= n; i++) min = Math.min(min, 1 / Math.hypot(sw.yRe[k][i], sw.yIm[k][i]));
+  return min;
+}
+
 export function figuresOf(kind: SolvableKind, p: SolvedParams, withImpedance = true): Figures {
   const ideal = idealCharacteristics(asNode(kind, p));
   return { gain: passbandGain(kind, p), f0: ideal.f0, q: ideal.q, inputImpedance: withImpedance ? inputImpedance(kind, p) : null };
@@ -342,7 +389,8 @@ function combos(choices: Record<string, (number | null)[]>): SolvedParams[] {
 function candidates(kind: SolvableKind, t: ResolvedTargets): SolvedParams[] {
   const R = t.series;
   const caps = seriesValues(t.capacitorSeries, t.minCapacitance, t.maxCapacitance);
-  const rFloor = Math.max(t.minResistance, kind === "noninverting" ? 0 : (t.minInputImpedance ?? 0));
+  // only the inverting stage's walked resistor (r1) is its input resistance
+  const rFloor = Math.max(t.minResistance, kind === "inverting" ? (t.minInputImpedance ?? 0) : 0);
   const res = seriesValues(R, rFloor, t.maxResistance);
   const out: SolvedParams[] = [];
   const w0 = TWO_PI * (t.f0 ?? NaN);
@@ -368,6 +416,11 @@ function candidates(kind: SolvableKind, t: ResolvedTargets): SolvedParams[] {
       }
       break;
     case "sallenKeyLowpass":
+      if (Math.abs(K - 1) > 1e-12) {
+        out.push(...sallenKeyWithGain(kind, t, caps, res));
+        break;
+      }
+    // falls through: the unity-gain Sallen-Key shares the MFB's search
     case "mfbLowpass": {
       const Q = t.q ?? NaN;
       const k1 = kind === "mfbLowpass" ? 1 + K : 1;
@@ -380,7 +433,7 @@ function candidates(kind: SolvableKind, t: ResolvedTargets): SolvedParams[] {
           for (const x of new Set([(S + disc) / 2, (S - disc) / 2])) {
             if (kind === "sallenKeyLowpass") {
               // x and P/x are r1 and r2 in either order (f0 and Q are symmetric in them)
-              out.push(...combos({ r1: snaps(x, R), r2: snaps(P / x, R), c1: [c1], c2: [c2] }));
+              out.push(...combos({ r1: snaps(x, R), r2: snaps(P / x, R), c1: [c1], c2: [c2], rf: [null], rg: [null] }));
             } else {
               // x is r2; r3 = 1/(ω0²·c1·c2·r2); r1 = r2/K
               const r3 = 1 / (w0 * w0 * c1 * c2 * x);
@@ -390,6 +443,72 @@ function candidates(kind: SolvableKind, t: ResolvedTargets): SolvedParams[] {
         }
       }
       break;
+    }
+    case "sallenKeyHighpass":
+      out.push(...sallenKeyWithGain(kind, t, caps, res));
+      break;
+    case "mfbHighpass": {
+      // |K| = c1/c2, ω0² = 1/(r1r2c2c3), Q = √(r1r2c2c3)/(r1(c1 + c2 + c3)) ⇒ r1 = 1/(Q·ω0·(c1 + c2 + c3)),
+      // r2 = 1/(ω0²·r1·c2·c3) [DERIVED from the analysis form of ideal.ts]
+      const Q = t.q ?? NaN;
+      for (const c2 of caps) {
+        for (const c1 of snaps(K * c2, t.capacitorSeries)) {
+          if (c1 > t.maxCapacitance * (1 + 1e-12) || c1 < t.minCapacitance * (1 - 1e-12)) continue;
+          for (const c3 of caps) {
+            const r1 = 1 / (Q * w0 * (c1 + c2 + c3));
+            const r2 = 1 / (w0 * w0 * r1 * c2 * c3);
+            out.push(...combos({ c1: [c1], c2: [c2], c3: [c3], r1: snaps(r1, R), r2: snaps(r2, R) }));
+          }
+        }
+      }
+      break;
+    }
+  }
+  return out;
+}
+
+/** The two best standard (rf, rg) pairs for K = 1 + rf/rg (smallest error, then smallest rf). */
+function gainPairs(K: number, res: number[], R: ESeries): { rf: number; rg: number }[] {
+  const pairs: { rf: number; rg: number; e: number }[] = [];
+  for (const rg of res) for (const rf of snaps((K - 1) * rg, R)) if (rf <= res[res.length - 1] && rf >= res[0]) pairs.push({ rf, rg, e: Math.abs((1 + rf / rg) / K - 1) });
+  pairs.sort((a, b) => a.e - b.e || a.rf - b.rf);
+  return pairs.slice(0, 2);
+}
+
+/**
+ * Sallen-Key with a gain network (K = 1 + rf/rg), low-pass or high-pass. With r1·r2 = P = 1/(ω0²c1c2) and
+ * b1 = 1/(Q·ω0) [DERIVED from the forms in ideal.ts]:
+ *   low-pass  b1 = r1(c2 + c1(1 − K)) + r2·c2  ⇒ (c2 + c1(1 − K))·r1² − b1·r1 + P·c2 = 0,
+ *   high-pass b1 = r1(c1 + c2) + r2·c2(1 − K)  ⇒ (c1 + c2)·r1² − b1·r1 + P·c2(1 − K) = 0;
+ * every positive root gives r1, then r2 = P/r1. The K of each standard pair is used exactly.
+ */
+function sallenKeyWithGain(kind: "sallenKeyLowpass" | "sallenKeyHighpass", t: ResolvedTargets, caps: number[], res: number[]): SolvedParams[] {
+  const out: SolvedParams[] = [];
+  const R = t.series;
+  const K = t.gain as number;
+  const Q = t.q as number;
+  const w0 = TWO_PI * (t.f0 as number);
+  const pairs: ({ rf: number; rg: number } | { rf: null; rg: null })[] = Math.abs(K - 1) < 1e-12 ? [{ rf: null, rg: null }] : gainPairs(K, res, R);
+  for (const pair of pairs) {
+    const k = pair.rf == null ? 1 : 1 + pair.rf / pair.rg;
+    for (const c1 of caps) {
+      for (const c2 of caps) {
+        const P = 1 / (w0 * w0 * c1 * c2);
+        const b1 = 1 / (Q * w0);
+        const a = kind === "sallenKeyLowpass" ? c2 + c1 * (1 - k) : c1 + c2;
+        const c = kind === "sallenKeyLowpass" ? P * c2 : P * c2 * (1 - k);
+        const roots: number[] = [];
+        if (Math.abs(a) < 1e-30) roots.push(c / b1);
+        else {
+          const d = b1 * b1 - 4 * a * c;
+          if (d < 0) continue;
+          roots.push((b1 + Math.sqrt(d)) / (2 * a), (b1 - Math.sqrt(d)) / (2 * a));
+        }
+        for (const r1 of roots) {
+          if (!(r1 > 0)) continue;
+          out.push(...combos({ r1: snaps(r1, R), r2: snaps(P / r1, R), c1: [c1], c2: [c2], rf: [pair.rf], rg: [pair.rg] }));
+        }
+      }
     }
   }
   return out;
@@ -448,6 +567,7 @@ function withSensitivity(kind: SolvableKind, set: SolvedSet): SolvedSet {
  */
 export function solveStage(kind: SolvableKind, targets: SolveTargets): SolveResult {
   const t = resolveTargets(targets);
+  if (GAIN_DEFAULTS_TO_ONE.has(kind) && t.gain == null) t.gain = 1;
   const result = (problem: string | null, sets: SolvedSet[] = [], nearest: SolvedSet[] = [], evaluated = 0): SolveResult => ({
     kind,
     targets: t,
@@ -462,13 +582,13 @@ export function solveStage(kind: SolvableKind, targets: SolveTargets): SolveResu
   }
   if (t.minResistance > t.maxResistance) return result("The resistor range is empty: its minimum is above its maximum.");
   if (t.minCapacitance > t.maxCapacitance) return result("The capacitor ceiling is below the capacitor floor.");
-  if (kind === "noninverting" && (t.gain as number) < 1 - 1e-12) {
+  if ((kind === "noninverting" || GAIN_DEFAULTS_TO_ONE.has(kind)) && (t.gain as number) < 1 - 1e-12) {
     return result(`A non-inverting stage cannot have a gain below 1 (asked ${fmt(t.gain as number)}); use an inverting stage or a divider.`);
   }
-  if (kind !== "noninverting" && t.minInputImpedance != null && t.minInputImpedance > t.maxResistance) {
+  if (kind !== "noninverting" && kind !== "mfbHighpass" && kind !== "sallenKeyHighpass" && t.minInputImpedance != null && t.minInputImpedance > t.maxResistance) {
     return result(`The input-impedance floor ${fmt(t.minInputImpedance)} Ω is above the largest allowed resistor ${fmt(t.maxResistance)} Ω, and this stage's input impedance is set by a resistor.`);
   }
-  if (kind === "sallenKeyLowpass" || kind === "mfbLowpass") {
+  if ((kind === "sallenKeyLowpass" && t.gain === 1) || kind === "mfbLowpass") {
     const Q = t.q as number;
     const k1 = kind === "mfbLowpass" ? 1 + (t.gain as number) : 1;
     const need = 4 * Q * Q * k1;
