@@ -19,6 +19,8 @@ import type { DraftNode, ParamValue } from "@/lib/store/draft";
 import { QuantityInput } from "./quantity-input";
 import { Pictogram } from "./pictograms";
 import { StageNumbers } from "./stage-numbers";
+import { SolvePanel } from "./solve-panel";
+import { FilterWizard } from "./filter-wizard";
 import { PartsPanel } from "./parts-panel";
 import { ChainSheet } from "./chain-sheet";
 import { readFormParam, readRails, nodeFormSchema, nodeToForm, ORDER_DEPS, type NodeFormValues } from "./node-form-schema";
@@ -236,6 +238,8 @@ function NodeSheet({ node, readOnly }: { node: DraftNode; readOnly: boolean }) {
         </fieldset>
       </form>
       {spec.opAmp && partsOpen && <PartsPanel readOnly={readOnly} focusKey={node.part ?? null} />}
+      {!readOnly && <SolvePanel node={node} />}
+      {!readOnly && <FilterWizard node={node} />}
       <StageNumbers node={node} />
     </div>
   );

@@ -14,6 +14,7 @@ import { ResponsePlot } from "@/components/plots/response-plot";
 import { ChecksPanel } from "@/components/checks/checks-panel";
 import { HeadroomTable } from "@/components/checks/headroom-table";
 import { SpreadPanel } from "@/components/spread/spread-panel";
+import { GainPlanPanel } from "./gain-plan-panel";
 import { createEditorStore, type EditorStore } from "@/lib/store/editor-store";
 import { EditorProvider, useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/editor-context";
 import { startBrowserAnalysis } from "@/lib/store/analysis-driver";
@@ -49,7 +50,7 @@ export function Workspace({ chain }: WorkspaceProps) {
   );
 }
 
-type DockTab = "response" | "findings" | "headroom" | "spread";
+type DockTab = "response" | "findings" | "headroom" | "spread" | "gainPlan";
 
 function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
   const store = useEditorStoreApi();
@@ -335,6 +336,7 @@ function Dock({ tab, setTab, focusNode }: { tab: DockTab; setTab: (t: DockTab) =
     { id: "findings", label: `Findings${findings ? ` (${findings})` : ""}` },
     { id: "headroom", label: "Headroom" },
     { id: "spread", label: "Spread" },
+    { id: "gainPlan", label: "Gain plan" },
   ];
   return (
     <section className="flex min-h-0 flex-col border-t border-paper-rule bg-paper-raised">
@@ -372,6 +374,11 @@ function Dock({ tab, setTab, focusNode }: { tab: DockTab; setTab: (t: DockTab) =
       <div id="dock-panel-spread" role="tabpanel" aria-labelledby="dock-tab-spread" hidden={tab !== "spread"} className="min-h-0 flex-1">
         <SpreadPanel />
       </div>
+      {tab === "gainPlan" && (
+        <div id="dock-panel-gainPlan" role="tabpanel" aria-labelledby="dock-tab-gainPlan" className="min-h-0 flex-1">
+          <GainPlanPanel />
+        </div>
+      )}
     </section>
   );
 }
