@@ -90,7 +90,9 @@ export function buildBom(chain: Chain): Bom {
   for (const node of signalOrder(chain)) {
     if (node.kind === "adc" || isFeed(chain, node)) continue;
     for (const c of componentParams(node)) {
-      const tolerance = c.type === "resistor" ? chain.tolerances.resistor : chain.tolerances.capacitor;
+      // a per-part tolerance (tolerances.overrides["nodeId.param"]) wins over the chain's default
+      const overrides = (chain.tolerances as { overrides?: Record<string, number> }).overrides ?? {};
+      const tolerance = overrides[`${node.id}.${c.param}`] ?? (c.type === "resistor" ? chain.tolerances.resistor : chain.tolerances.capacitor);
       const series = seriesForTolerance(tolerance);
       count[c.type] += 1;
       lines.push({

@@ -70,6 +70,17 @@ describe("buildBom on the demo chains", () => {
   });
 });
 
+describe("per-part tolerances", () => {
+  it("a part's own tolerance wins over the chain's, and picks its series", () => {
+    const { hull } = demo();
+    const copy = structuredClone(hull);
+    (copy.tolerances as { overrides?: Record<string, number> }).overrides = { "aa.r1": 0.05 };
+    const lines = buildBom(copy).lines;
+    expect(lines.find((l) => l.ref === "R4")).toMatchObject({ tolerance: 0.05, series: "E24" });
+    expect(lines.find((l) => l.ref === "R5")).toMatchObject({ tolerance: 0.01, series: "E96" });
+  });
+});
+
 describe("nearest standard values", () => {
   it("pairs the tolerance with its E-series (IEC 60063 table, from memory)", () => {
     expect(seriesForTolerance(0.001)).toBe("E96");
