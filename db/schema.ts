@@ -9,12 +9,13 @@ import {
   index,
   integer,
   primaryKey,
+  real,
   sqliteTable,
   text,
   uniqueIndex,
   type AnySQLiteColumn,
 } from "drizzle-orm/sqlite-core";
-import { CHAIN_ROLES, REVIEW_DECISIONS, REVIEW_STATES, TEAM_ROLES, WORST_STATUSES } from "../lib/domain";
+import { CHAIN_FILE_KINDS, CHAIN_ROLES, REVIEW_DECISIONS, REVIEW_STATES, TEAM_ROLES, WORST_STATUSES } from "../lib/domain";
 
 const newId = () => crypto.randomUUID();
 const now = () => new Date();
@@ -282,6 +283,33 @@ export const uploads = sqliteTable(
   (t) => [index("uploads_chain_idx").on(t.chainId)],
 );
 
+/**
+ * A file attached to a chain: a recorded waveform or a measured response (CSV). The bytes live in
+ * the file store (lib/storage: files under the data folder) under `storageKey`; this row is the
+ * metadata, written only after the bytes are safely stored.
+ */
+export const chainFiles = sqliteTable(
+  "chain_files",
+  {
+    id: text("id").primaryKey().$defaultFn(newId),
+    chainId: text("chain_id")
+      .notNull()
+      .references(() => chains.id, { onDelete: "cascade" }),
+    kind: text("kind", { enum: CHAIN_FILE_KINDS }).notNull(),
+    name: text("name").notNull(),
+    storageKey: text("storage_key").notNull().unique(),
+    size: integer("size").notNull(),
+    sha256: text("sha256").notNull(),
+    /** rows of numbers in the file */
+    rows: integer("rows").notNull(),
+    /** waveforms: samples per second (from the times, or as stated for one column) */
+    sampleRate: real("sample_rate"),
+    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("chain_files_chain_idx").on(t.chainId)],
+);
+
 /** An invitation to a team or to one chain. Only a hash of the token is stored. */
 export const invitations = sqliteTable(
   "invitations",
@@ -343,6 +371,7 @@ export type Comment = typeof comments.$inferSelect;
 export type Review = typeof reviews.$inferSelect;
 export type PartRow = typeof parts.$inferSelect;
 export type Upload = typeof uploads.$inferSelect;
+export type ChainFile = typeof chainFiles.$inferSelect;
 export type Invitation = typeof invitations.$inferSelect;
 export type AuditEntry = typeof auditLog.$inferSelect;
 

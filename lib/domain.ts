@@ -23,3 +23,7 @@ export type WorstStatus = (typeof WORST_STATUSES)[number];
 /** One reviewer's answer to a review request. */
 export const REVIEW_DECISIONS = ["pending", "approved", "changes-requested"] as const;
 export type ReviewDecision = (typeof REVIEW_DECISIONS)[number];
+
+/** What a file attached to a chain holds: a recorded waveform or a measured frequency response (CSV). */
+export const CHAIN_FILE_KINDS = ["waveform", "response"] as const;
+export type ChainFileKind = (typeof CHAIN_FILE_KINDS)[number];

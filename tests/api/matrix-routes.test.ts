@@ -32,6 +32,8 @@ import * as revisionsRoute from "@/app/api/chains/[id]/revisions/route";
 import * as revisionRoute from "@/app/api/chains/[id]/revisions/[revisionId]/route";
 import * as compareRoute from "@/app/api/chains/[id]/revisions/compare/route";
 import * as restoreRoute from "@/app/api/chains/[id]/revisions/[revisionId]/restore/route";
+import * as uploadsRoute from "@/app/api/chains/[id]/uploads/route";
+import * as uploadRoute from "@/app/api/chains/[id]/uploads/[fileId]/route";
 import * as teamsRoute from "@/app/api/teams/route";
 import * as teamRoute from "@/app/api/teams/[id]/route";
 import * as teamMemberRoute from "@/app/api/teams/[id]/members/[userId]/route";
@@ -55,6 +57,8 @@ import { getDb } from "@/db/connection";
 import { chains as chainsTable } from "@/db/schema";
 import { eq } from "drizzle-orm";
 import { getChainRow } from "@/db/queries/chains";
+import { insertChainFile } from "@/db/queries/chain-files";
+import { fileStore } from "@/lib/storage/file-store";
 import { createInvitation } from "@/db/queries/invitations";
 import type { User } from "@/db/schema";
 import { teamWorld, type TeamWorld } from "../support/team-world";
@@ -87,6 +91,15 @@ const completed = (w: TeamWorld) => {
   getDb().update(chainsTable).set({ document: JSON.stringify(hullVibration) }).where(eq(chainsTable.id, w.chainId)).run();
   return w.chainId;
 };
+
+/** A stored waveform of the world's chain, made for one call (the put writes synchronously). */
+function seedFile(w: TeamWorld): string {
+  const id = crypto.randomUUID();
+  const csv = "time,voltage\n0,0\n0.001,1\n";
+  void fileStore().put(`waveform-${id}`, Buffer.from(csv));
+  insertChainFile({ id, chainId: w.chainId, kind: "waveform", name: "burst.csv", storageKey: `waveform-${id}`, size: csv.length, sha256: "0".repeat(64), rows: 2, sampleRate: 1000, createdBy: null });
+  return id;
+}
 const version = (w: TeamWorld) => getChainRow(w.chainId)!.version;
 
 // Expected statuses, columns: owner editor reviewer viewer member admin other signedOut
@@ -194,6 +207,26 @@ const ROUTES: RouteCase[] = [
     name: "DELETE /api/chains/:id/comments/:commentId (the reviewer's thread)",
     expect: "200 403 200 403 403 200 404 401",
     call: (w) => ({ handler: h(commentRoute.DELETE), request: jsonRequest("DELETE", "/x"), context: paramsContext({ id: w.chainId, commentId: w.threadId }) }),
+  },
+  { name: "GET /api/chains/:id/uploads", expect: VIEW, call: (w) => ({ handler: h(uploadsRoute.GET), request: jsonRequest("GET", "/x"), context: idContext(w.chainId) }) },
+  {
+    name: "POST /api/chains/:id/uploads",
+    expect: "201 201 403 403 403 201 404 401",
+    call: (w) => ({
+      handler: h(uploadsRoute.POST),
+      request: jsonRequest("POST", "/x", { kind: "waveform", name: "step.csv", csv: "time,voltage\n0,0\n0.001,1\n0.002,1\n" }),
+      context: idContext(w.chainId),
+    }),
+  },
+  {
+    name: "GET /api/chains/:id/uploads/:fileId",
+    expect: VIEW,
+    call: (w) => ({ handler: h(uploadRoute.GET), request: jsonRequest("GET", "/x"), context: paramsContext({ id: w.chainId, fileId: seedFile(w) }) }),
+  },
+  {
+    name: "DELETE /api/chains/:id/uploads/:fileId",
+    expect: EDIT,
+    call: (w) => ({ handler: h(uploadRoute.DELETE), request: jsonRequest("DELETE", "/x"), context: paramsContext({ id: w.chainId, fileId: seedFile(w) }) }),
   },
   { name: "GET /api/chains/:id/revisions", expect: VIEW, call: (w) => ({ handler: h(revisionsRoute.GET), request: jsonRequest("GET", "/x"), context: idContext(w.chainId) }) },
   {
