@@ -15,6 +15,7 @@ import { ChecksPanel } from "@/components/checks/checks-panel";
 import { HeadroomTable } from "@/components/checks/headroom-table";
 import { SpreadPanel } from "@/components/spread/spread-panel";
 import { GainPlanPanel } from "./gain-plan-panel";
+import { NoiseBudgetPanel } from "@/components/spread/noise-budget-panel";
 import { createEditorStore, type EditorStore } from "@/lib/store/editor-store";
 import { EditorProvider, useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/editor-context";
 import { startBrowserAnalysis } from "@/lib/store/analysis-driver";
@@ -50,7 +51,7 @@ export function Workspace({ chain }: WorkspaceProps) {
   );
 }
 
-type DockTab = "response" | "findings" | "headroom" | "spread" | "gainPlan";
+type DockTab = "response" | "findings" | "headroom" | "noise" | "spread" | "gainPlan";
 
 function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
   const store = useEditorStoreApi();
@@ -335,6 +336,7 @@ function Dock({ tab, setTab, focusNode }: { tab: DockTab; setTab: (t: DockTab) =
     { id: "response", label: "Response" },
     { id: "findings", label: `Findings${findings ? ` (${findings})` : ""}` },
     { id: "headroom", label: "Headroom" },
+    { id: "noise", label: "Noise budget" },
     { id: "spread", label: "Spread" },
     { id: "gainPlan", label: "Gain plan" },
   ];
@@ -368,6 +370,11 @@ function Dock({ tab, setTab, focusNode }: { tab: DockTab; setTab: (t: DockTab) =
       {tab === "headroom" && (
         <div id="dock-panel-headroom" role="tabpanel" aria-labelledby="dock-tab-headroom" className="min-h-0 flex-1">
           <HeadroomTable onFocusNode={focusNode} />
+        </div>
+      )}
+      {tab === "noise" && (
+        <div id="dock-panel-noise" role="tabpanel" aria-labelledby="dock-tab-noise" className="min-h-0 flex-1">
+          <NoiseBudgetPanel />
         </div>
       )}
       {/* kept mounted while hidden, so a run in progress goes on and its result stays */}

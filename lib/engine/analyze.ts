@@ -24,7 +24,7 @@ import { operatingPoint, type DcPoint, type DcTerm } from "./dc";
 import { db, si } from "./format";
 import { bandGrid, bandMax, bandMaxMany, logGrid } from "./grids";
 import { idealCharacteristics } from "./ideal";
-import { pathNoise, pathNoiseDensity } from "./noise";
+import { pathNoise, pathNoiseDensity, pathNoiseDensityBy } from "./noise";
 import { ratioMagAt } from "./poly";
 import { toMagnitudePhase } from "./response";
 import { isOpAmpKind } from "./topology";
@@ -356,8 +356,9 @@ export function analyzeChain(chain: Chain, opts: AnalyzeOptions = {}): AnalysisR
     if (withNoise && chain.analysis.noiseLow >= fMax)
       W.add(endNode.id, "noise-band", `noiseLow is at or above fMax, so the noise up to fMax (totalRms) is empty and reported as 0.`);
     const density = withNoise ? pathNoiseDensity(chain, cc, end, freqs).map((v) => (Number.isFinite(v) ? v : null)) : [];
-    const noise = { ...nz, density };
+    const noise = { ...nz, density, ...(withNoise ? noiseBudgetFigures(chain, cc, end, freqs, resp, band[end].gain, nz) : {}) };
     const adc = endNode.kind === "adc" ? adcFigures(chain, cc, end, op.out[end], band[end], withNoise ? nz.totalRms : null, W) : null;
+    if (adc) Object.assign(adc, aliasFigures(chain, cc, end, freqs, resp, band[end].gain, adc.quantNoiseRms, withNoise ? nz.totalRms : null));
     return { nodes: path.nodes, response: { f, magDb, phaseDeg }, stages, noise, adc };
   });
 
@@ -470,5 +471,77 @@ function adcFigures(
     peakIn,
     aliasBand,
     signalRms,
+  };
+}
+
+/** How many of the largest contributors the budget carries a density curve for. */
+const BUDGET_TOP = 6;
+/** Most folding bands listed (beyond, they tile the axis and say nothing more). */
+const MAX_FOLD_BANDS = 64;
+const finiteOrNull = (x: number) => (Number.isFinite(x) ? x : null);
+
+/**
+ * Extra noise figures for the budget (noise-budget panel, report): the signal gain over the source band
+ * (max |H| from the EMF to the path end), the noise referred to the input through it (rms over the noise
+ * band and over all the converter samples, and the density curve divided by |H(f)|), and the density of
+ * the largest contributors (by rms over what the converter samples) on the response grid.
+ */
+function noiseBudgetFigures(
+  chain: Chain,
+  cc: CompiledChain,
+  end: number,
+  freqs: Float64Array,
+  resp: SweepResult,
+  bandGain: number | null,
+  nz: { outputRms: number; totalRms: number; contributions: { nodeId: string; element: string; totalRms?: unknown }[] },
+) {
+  const g = bandGain !== null && bandGain > 0 ? bandGain : null;
+  const top = [...nz.contributions].sort((a, b) => (b.totalRms as number) - (a.totalRms as number)).slice(0, BUDGET_TOP);
+  const curves = pathNoiseDensityBy(chain, cc, end, freqs, top);
+  const total = pathNoiseDensity(chain, cc, end, freqs);
+  const inputDensity = total.map((d, k) => finiteOrNull(d / Math.hypot(resp.cumRe[end][k], resp.cumIm[end][k])));
+  return {
+    bandGain: g,
+    inputReferredRms: g === null ? null : nz.outputRms / g,
+    inputReferredTotalRms: g === null ? null : nz.totalRms / g,
+    inputDensity,
+    topDensities: top.map((c, j) => ({ nodeId: c.nodeId, element: c.element, density: curves[j].map(finiteOrNull) })),
+  };
+}
+
+/**
+ * Converter extras for the budget: the alias attenuation at every frequency of the response grid
+ * (band gain over |H(f)|, dB: how far a tone at f is pushed below the band's gain), the bands that fold
+ * into the source band [fLow, fHigh] (k·fs − fHigh … k·fs − fLow and k·fs + fLow … k·fs + fHigh, k ≥ 1,
+ * up to fMax), and the analog noise against the quantisation noise (dB, positive when analog dominates).
+ */
+function aliasFigures(
+  chain: Chain,
+  cc: CompiledChain,
+  end: number,
+  freqs: Float64Array,
+  resp: SweepResult,
+  bandGain: number | null,
+  quantNoiseRms: number,
+  totalRms: number | null,
+) {
+  const node = cc.topology.nodes[end];
+  const src = cc.topology.nodes[0];
+  if (node.kind !== "adc" || src.kind !== "source") return {};
+  const fs = node.params.sampleRate;
+  const { fLow, fHigh } = src.params;
+  const attenuation = Array.from(freqs, (_, k) => {
+    const m = Math.hypot(resp.cumRe[end][k], resp.cumIm[end][k]);
+    return bandGain !== null && bandGain > 0 && m > 0 ? finiteOrNull(20 * Math.log10(bandGain / m)) : null;
+  });
+  const foldBands: { low: number; high: number; k: number }[] = [];
+  for (let k = 1; foldBands.length < MAX_FOLD_BANDS && k * fs - fHigh <= chain.analysis.fMax; k++) {
+    foldBands.push({ k, low: Math.max(0, k * fs - fHigh), high: k * fs - fLow });
+    if (k * fs + fLow <= chain.analysis.fMax) foldBands.push({ k, low: k * fs + fLow, high: k * fs + fHigh });
+  }
+  return {
+    aliasCurve: { f: Array.from(freqs), attenuationDb: attenuation },
+    foldBands,
+    analogOverQuantDb: totalRms !== null && totalRms > 0 ? 20 * Math.log10(totalRms / quantNoiseRms) : null,
   };
 }

@@ -132,6 +132,8 @@ export function pathNoise(chain: Chain, cc: CompiledChain, end: number): PathNoi
       rms: Math.sqrt(p),
       share: pBand > 0 ? p / pBand : 0,
       totalRms: Math.sqrt(pt),
+      // share of the power the converter samples ([noiseLow, fMax])
+      totalShare: pTotal > 0 ? pt / pTotal : 0,
     });
   }
   contributions.sort((a, b) => b.rms - a.rms || (b.totalRms as number) - (a.totalRms as number));
@@ -163,6 +165,35 @@ export function pathNoiseDensity(chain: Chain, cc: CompiledChain, end: number, f
     let p = 0;
     for (const v of vals) p += v[0];
     out.push(Math.sqrt(p));
+  }
+  return out;
+}
+
+/**
+ * Density at the path end, V/√Hz, of each named source (nodeId + element as in the contributions) at
+ * each frequency, for the budget's density plot of the largest contributors. NaN at f ≤ 0.
+ */
+export function pathNoiseDensityBy(
+  chain: Chain,
+  cc: CompiledChain,
+  end: number,
+  freqs: ArrayLike<number>,
+  which: { nodeId: string; element: string }[],
+): number[][] {
+  const ns = noiseSources(chain, cc);
+  const idx = which.map((w) => ns.nodeId.findIndex((id, j) => id === w.nodeId && ns.element[j] === w.element));
+  const re = new Float64Array(cc.sources.length);
+  const im = new Float64Array(cc.sources.length);
+  const vals = Array.from({ length: ns.transfer.length }, () => new Float64Array(1));
+  const out = which.map(() => [] as number[]);
+  for (let i = 0; i < freqs.length; i++) {
+    const f = freqs[i];
+    if (!(f > 0)) {
+      out.forEach((o) => o.push(NaN));
+      continue;
+    }
+    densitiesAt(cc, ns, end, f, re, im, vals, 0);
+    idx.forEach((j, w) => out[w].push(j >= 0 ? Math.sqrt(vals[j][0]) : NaN));
   }
   return out;
 }

@@ -1,5 +1,5 @@
 /**
- * The Spread tab in a real browser (production build, strict content security policy): a run streams in
+ * The Noise budget and Spread tabs in a real browser (production build, strict content security policy): a run streams in
  * through the worker and ends with the envelope, the histograms and the worst-case table drawn; a second,
  * long run is cancelled part way. No timing is asserted.
  */
@@ -28,6 +28,14 @@ describe.skipIf(ctx.skip !== null)("tolerance spread in the workspace", () => {
     await page.waitForURL(/\/chains$/);
     await openWorkspace(page, "Hull vibration channel, aft bay");
     await waitForPlot(page);
+    // the noise budget, from the full analysis
+    await page.getByRole("tab", { name: "Noise budget" }).click();
+    await expect.poll(() => page.getByTestId("noise-contributions").locator("tbody tr").count(), { timeout: 60_000 }).toBeGreaterThan(2);
+    expect((await page.getByTestId("noise-density").locator('[data-line="total"]').getAttribute("d"))?.length ?? 0).toBeGreaterThan(20);
+    expect(await page.getByTestId("noise-alias").locator("[data-span]").count()).toBeGreaterThan(0);
+    expect(await page.getByTestId("noise-snr").textContent()).toMatch(/dB/);
+    await screenshot(page, "noise-budget");
+
     await page.getByRole("tab", { name: "Spread" }).click();
 
     await page.getByTestId("spread-trials").fill("300");
