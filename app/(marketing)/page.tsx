@@ -15,8 +15,8 @@ const CHECKS = [
     body: "Resistor, amplifier and sensor noise carried to the ADC, compared with its quantisation noise, giving SNR and effective bits.",
   },
   {
-    title: "Next: spread and waveforms",
-    body: "Not in this version yet: tolerance spread by Monte Carlo and worst-case corners, and recorded waveforms run through the chain.",
+    title: "Spread over part tolerances",
+    body: "Monte Carlo builds and worst-case corners over every resistor and capacitor, which part moves what, and standard values with a preview. Recorded waveforms run through the chain are not in this version yet.",
   },
 ];
 

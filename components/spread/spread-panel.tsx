@@ -14,6 +14,7 @@ import { createSpreadClient, type SpreadClient } from "@/lib/store/spread-client
 import type { SpreadMessage } from "@/lib/store/spread-protocol";
 import { fmt, fmtCompact, fmtVolts } from "@/components/editor/format";
 import { Histogram, LogFreqPlot } from "./svg-plots";
+import { SnapPanel } from "./snap-panel";
 
 type RunState =
   | { phase: "idle" }
@@ -116,6 +117,9 @@ export function SpreadPanel() {
       )}
       {!chain && <p className="mt-2 text-graphite-500">Nothing is analysed yet: complete a path from the source first.</p>}
       {stale && <p className="mt-1 text-status-tight">▲ The chain has changed since this run; run it again to see the spread of the present values.</p>}
+      <div className="mt-2">
+        <SnapPanel />
+      </div>
       {result && <SpreadResults result={result} />}
     </div>
   );
