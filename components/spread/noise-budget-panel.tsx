@@ -13,17 +13,15 @@ import { fmt, fmtDb } from "@/components/editor/format";
 import { LogFreqPlot } from "./svg-plots";
 
 interface BudgetNoise {
+  aliasCurve?: { f: number[]; attenuationDb: (number | null)[] };
+  foldBands?: { low: number; high: number; k: number }[];
+  analogOverQuantDb?: number | null;
   bandGain?: number | null;
   inputReferredRms?: number | null;
   inputReferredTotalRms?: number | null;
   inputDensity?: (number | null)[];
   topDensities?: { nodeId: string; element: string; density: (number | null)[] }[];
   density?: (number | null)[];
-}
-interface BudgetAdc {
-  aliasCurve?: { f: number[]; attenuationDb: (number | null)[] };
-  foldBands?: { low: number; high: number; k: number }[];
-  analogOverQuantDb?: number | null;
 }
 
 /** What a noise source is, in words. */
@@ -69,7 +67,7 @@ export function NoiseBudgetPanel() {
 
 function Budget({ path }: { path: PathResult }) {
   const nz = path.noise as PathResult["noise"] & BudgetNoise;
-  const adc = path.adc as (AdcResult & BudgetAdc) | null;
+  const adc = path.adc as AdcResult | null;
   const f = path.response.f;
   return (
     <div className="grid gap-3">
@@ -87,7 +85,7 @@ function Budget({ path }: { path: PathResult }) {
             <dt className="text-graphite-700">quantisation noise (LSB/√12)</dt>
             <dd className="num">{volts(adc.quantNoiseRms)} rms</dd>
             <dt className="text-graphite-700">analog against quantisation</dt>
-            <dd className="num">{adc.analogOverQuantDb === null || adc.analogOverQuantDb === undefined ? "—" : `${fmtDb(adc.analogOverQuantDb)} (${adc.analogOverQuantDb > 0 ? "analog noise dominates" : "quantisation dominates"})`}</dd>
+            <dd className="num">{nz.analogOverQuantDb === null || nz.analogOverQuantDb === undefined ? "—" : `${fmtDb(nz.analogOverQuantDb)} (${nz.analogOverQuantDb > 0 ? "analog noise dominates" : "quantisation dominates"})`}</dd>
             <dt className="text-graphite-700">SNR, full-scale sine</dt>
             <dd className="num" data-testid="noise-snr">{fmtDb(adc.snrDb, 2)} (ideal {fmtDb(adc.idealSnrDb, 2)})</dd>
             <dt className="text-graphite-700">effective bits</dt>
@@ -113,16 +111,16 @@ function Budget({ path }: { path: PathResult }) {
             />
           </section>
         )}
-        {adc?.aliasCurve && (
+        {adc && nz.aliasCurve && (
           <section aria-label="Alias attenuation">
             <h3 className="text-[12.5px] font-medium">Alias attenuation below the band&apos;s gain (dB); shaded: frequencies that fold into the band</h3>
             <LogFreqPlot
-              f={adc.aliasCurve.f}
+              f={nz.aliasCurve.f}
               yLabel="dB"
               title="Alias attenuation over frequency, with the bands that fold into the source band shaded"
               testId="noise-alias"
-              spans={(adc.foldBands ?? []).map((b) => ({ lo: b.low, hi: b.high }))}
-              lines={[{ y: adc.aliasCurve.attenuationDb, className: "stroke-accent-700", label: "attenuation" }]}
+              spans={(nz.foldBands ?? []).map((b) => ({ lo: b.low, hi: b.high }))}
+              lines={[{ y: nz.aliasCurve.attenuationDb, className: "stroke-accent-700", label: "attenuation" }]}
             />
             <p className="text-[11.5px] text-graphite-700">Worst over the alias band: {fmtDb(adc.aliasAttenuationDb)}.</p>
           </section>

@@ -356,9 +356,14 @@ export function analyzeChain(chain: Chain, opts: AnalyzeOptions = {}): AnalysisR
     if (withNoise && chain.analysis.noiseLow >= fMax)
       W.add(endNode.id, "noise-band", `noiseLow is at or above fMax, so the noise up to fMax (totalRms) is empty and reported as 0.`);
     const density = withNoise ? pathNoiseDensity(chain, cc, end, freqs).map((v) => (Number.isFinite(v) ? v : null)) : [];
-    const noise = { ...nz, density, ...(withNoise ? noiseBudgetFigures(chain, cc, end, freqs, resp, band[end].gain, nz) : {}) };
     const adc = endNode.kind === "adc" ? adcFigures(chain, cc, end, op.out[end], band[end], withNoise ? nz.totalRms : null, W) : null;
-    if (adc) Object.assign(adc, aliasFigures(chain, cc, end, freqs, resp, band[end].gain, adc.quantNoiseRms, withNoise ? nz.totalRms : null));
+    // the budget's figures ride with the noise (full analysis only; the quick tier's one-point grid has no curves)
+    const noise = {
+      ...nz,
+      density,
+      ...(withNoise ? noiseBudgetFigures(chain, cc, end, freqs, resp, band[end].gain, nz) : {}),
+      ...(withNoise && adc ? aliasFigures(chain, cc, end, freqs, resp, band[end].gain, adc.quantNoiseRms, nz.totalRms) : {}),
+    };
     return { nodes: path.nodes, response: { f, magDb, phaseDeg }, stages, noise, adc };
   });
 

@@ -53,7 +53,7 @@ describe("noise budget", () => {
 
   it("quantisation against analog noise", () => {
     const ad = p.adc!;
-    near(ad.analogOverQuantDb as number, 20 * Math.log10(p.noise.totalRms / ad.quantNoiseRms), { rel: 1e-12 }, "definition");
+    near(p.noise.analogOverQuantDb as number, 20 * Math.log10(p.noise.totalRms / ad.quantNoiseRms), { rel: 1e-12 }, "definition");
   });
 });
 
@@ -64,14 +64,13 @@ describe("alias attenuation over frequency", () => {
   });
 
   it("first-order RC at fc = 1 kHz is 27.6118 dB down at 24 kHz", () => {
-    const ad = analyzeChain(chain, { freqs: [24e3] }).paths[0].adc!;
-    const curve = ad.aliasCurve as { f: number[]; attenuationDb: number[] };
+    const nz = analyzeChain(chain, { freqs: [24e3] }).paths[0].noise;
+    const curve = nz.aliasCurve as { f: number[]; attenuationDb: number[] };
     near(curve.attenuationDb[0], 27.6118, { abs: 5e-5 }, "references.md §13, first-order RC fc = 1 kHz at 24 kHz");
   });
 
   it("lists the bands that fold into [fLow, fHigh] up to fMax", () => {
-    const ad = analyzeChain(chain).paths[0].adc!;
-    const bands = ad.foldBands as { low: number; high: number; k: number }[];
+    const bands = analyzeChain(chain).paths[0].noise.foldBands as { low: number; high: number; k: number }[];
     // derived: a tone at f lands at |f − k·fs|, inside [0, 100 Hz] for f in [k·fs − 100, k·fs + 100]
     expect(bands.slice(0, 4)).toEqual([
       { k: 1, low: 47_900, high: 48_000 },
