@@ -16,6 +16,7 @@ import { HeadroomTable } from "@/components/checks/headroom-table";
 import { SpreadPanel } from "@/components/spread/spread-panel";
 import { GainPlanPanel } from "./gain-plan-panel";
 import { NoiseBudgetPanel } from "@/components/spread/noise-budget-panel";
+import { WaveformPanel } from "@/components/waveform/waveform-panel";
 import { createEditorStore, type EditorStore } from "@/lib/store/editor-store";
 import { EditorProvider, useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/editor-context";
 import { startBrowserAnalysis } from "@/lib/store/analysis-driver";
@@ -51,7 +52,7 @@ export function Workspace({ chain }: WorkspaceProps) {
   );
 }
 
-type DockTab = "response" | "findings" | "headroom" | "noise" | "spread" | "gainPlan";
+type DockTab = "response" | "findings" | "headroom" | "noise" | "spread" | "gainPlan" | "waveforms";
 
 function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
   const store = useEditorStoreApi();
@@ -339,7 +340,11 @@ function Dock({ tab, setTab, focusNode }: { tab: DockTab; setTab: (t: DockTab) =
     { id: "noise", label: "Noise budget" },
     { id: "spread", label: "Spread" },
     { id: "gainPlan", label: "Gain plan" },
+    { id: "waveforms", label: "Waveforms" },
   ];
+  const chainId = useEditor((s) => s.chainId);
+  const [waveformsOpened, setWaveformsOpened] = useState(false);
+  if (tab === "waveforms" && !waveformsOpened) setWaveformsOpened(true);
   return (
     <section className="flex min-h-0 flex-col border-t border-paper-rule bg-paper-raised">
       <div role="tablist" aria-label="Analysis views" className="flex gap-0.5 border-b border-paper-rule px-2 pt-1">
@@ -384,6 +389,12 @@ function Dock({ tab, setTab, focusNode }: { tab: DockTab; setTab: (t: DockTab) =
       {tab === "gainPlan" && (
         <div id="dock-panel-gainPlan" role="tabpanel" aria-labelledby="dock-tab-gainPlan" className="min-h-0 flex-1">
           <GainPlanPanel />
+        </div>
+      )}
+      {/* mounted on first opening (it starts a worker), then kept so a run survives switching tabs */}
+      {waveformsOpened && (
+        <div id="dock-panel-waveforms" role="tabpanel" aria-labelledby="dock-tab-waveforms" hidden={tab !== "waveforms"} className="min-h-0 flex-1">
+          <WaveformPanel chainId={chainId} visible={tab === "waveforms"} />
         </div>
       )}
     </section>

@@ -1,0 +1,50 @@
+import type { Browser } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
+import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { e2eContext } from "./support/context";
+import { openWorkspace, waitForPlot } from "./workspace-support";
+
+const ctx = e2eContext();
+
+describe.skipIf(ctx.skip !== null)("the Waveforms tab (production build)", () => {
+  let browser: Browser;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it("runs a step that clips, draws the stacked plots and lists the clip; reads a recording and names a bad line", async () => {
+    const { context, page } = await newSession(browser);
+    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
+    await page.waitForURL(/\/chains$/);
+    await openWorkspace(page, "Hull vibration channel, aft bay");
+    await waitForPlot(page);
+    await page.getByRole("tab", { name: "Waveforms" }).click();
+    const panel = page.getByTestId("waveform-panel");
+    await panel.getByLabel("Amplitude (V)").fill("1.5");
+    await panel.getByTestId("waveform-run").click();
+    await page.getByTestId("waveform-summary").waitFor({ timeout: 20_000 });
+    // one stacked row per trace: EMF, source output, coupling, gain, anti-alias
+    await page.waitForFunction(() => document.querySelectorAll('[data-testid="waveform-plot"] .gl-container, [data-testid="waveform-plot"] .main-svg').length > 0, null, { timeout: 20_000 });
+    const rows = await page.locator('[data-testid="waveform-plot"] .main-svg .yaxislayer-above').count();
+    expect(rows).toBeGreaterThanOrEqual(1);
+    const table = page.getByTestId("waveform-clip-table");
+    await expect(table.locator("tbody tr").count()).resolves.toBeGreaterThan(0);
+    await expect(table.innerText()).resolves.toMatch(/gain.*upper swing/s);
+    await screenshot(page, "workspace-waveforms-step");
+
+    await panel.getByLabel("Drive").selectOption("recording");
+    await panel.getByLabel("Recording CSV").setInputFiles({ name: "bad.csv", mimeType: "text/csv", buffer: Buffer.from("time,voltage\n0,0\n0.001,\n0.002,1\n") });
+    await expect(page.getByTestId("recording-problems").innerText()).resolves.toMatch(/line 3, voltage: missing value/);
+    await panel.getByLabel("Recording CSV").setInputFiles("public/examples/keelwater-hull-knock-burst.csv");
+    await expect(page.getByTestId("recording-preview").innerText()).resolves.toMatch(/4,000 rows, 20000 S\/s/);
+    await panel.getByTestId("waveform-run").click();
+    await page.waitForFunction(() => /4,000 samples/.test(document.querySelector('[data-testid="waveform-summary"]')?.textContent ?? ""), null, { timeout: 20_000 });
+    await expect(page.getByTestId("waveform-clip-table").innerText()).resolves.toMatch(/swing/);
+    await screenshot(page, "workspace-waveforms-recording");
+    await context.close();
+  });
+});
