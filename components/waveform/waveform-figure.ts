@@ -50,7 +50,7 @@ export function waveformFigure(run: WaveformRun, rows: Row[], window: [number, n
     const top = 1 - r * (h + gap);
     const d = minMaxDecimate(row.v, BUCKETS, from, to);
     const x = Array.from(d.index, (i) => (i / fs) * 1000);
-    data.push({ type: "scattergl", mode: "lines", x, y: Array.from(d.value), name: row.name, yaxis: axis, xaxis: "x", line: { width: 1.2, color: row.trace?.clippedSamples ? "#b4412f" : "#2f5d8a" }, hovertemplate: `${row.name}: %{y:.4g} V<extra></extra>` });
+    data.push({ type: "scatter", mode: "lines", x, y: Array.from(d.value), name: row.name, yaxis: axis, xaxis: "x", line: { width: 1.2, color: row.trace?.clippedSamples ? "#b4412f" : "#2f5d8a" }, hovertemplate: `${row.name}: %{y:.4g} V<extra></extra>` });
     const yl: Record<string, unknown> = { domain: [Math.max(0, top - h), top], title: { text: row.name, font: { size: 10 } }, zeroline: false };
     const t = row.trace;
     if (t?.rails || t?.band) {
