@@ -50,6 +50,20 @@ const DRAWINGS: Record<NodeKind, string[]> = {
     "M8 17 v-10 h5", cap(13, 7), "M15.5 7 h28.5 v10", "M20 17 v-6 h2", res(22, 11, 7), "M29 11 h15",
     "M8 17 v2", resV(8, 19, 4), "M8 23 v1.5",
   ],
+  // ---- sensor sources and front-end stages (issue 14)
+  bridge: [
+    "M4 14 l8 -9 l8 9 l-8 9 Z", "M8 9.5 l1.6 -1.8", "M16 18.5 l1.6 -1.8", "M12 5 v-3", "M12 23 v3",
+    "M20 14 h8", "M4 14 h-3 v8", "M28 11 h20", "M28 17 h20", "M28 14 v-3 M28 14 v3",
+  ],
+  photodiode: [
+    "M14 8 v12", "M8 8 h12 l-6 8 Z", "M14 16 h0", "M4 2 l5 5 M3 6 l5 5", "M14 8 v-4 h34", "M14 20 v4", gnd(14, 24),
+  ],
+  piezo: ["M10 6 h8 v16 h-8 Z", "M12 6 v16 M16 6 v16", "M14 6 v-2 h34", "M14 22 v2", gnd(14, 24)],
+  thermocouple: ["M4 14 l8 -6 M4 14 l8 6", "M4 14 m-2 0 a2 2 0 1 0 4 0 a2 2 0 1 0 -4 0", "M12 8 h36", "M12 20 h36"],
+  transimpedance: ["M0 19 h22", amp(22, 19), "M34 19 h14", "M17 19 v-15 h5", res(22, 4, 8), "M30 4 h10 v15", "M17 11 h8", cap(25, 11), "M27.5 11 h12.5", "M4 15 l4 4 l-4 4"],
+  chargeAmp: ["M0 19 h22", amp(22, 19), "M34 19 h14", "M17 19 v-15 h8", cap(25, 4), "M27.5 4 h12.5 v15", "M17 11 h5", res(22, 11, 8), "M30 11 h10", "M3 15 h4 v8 h-4 Z"],
+  differenceAmp: ["M0 14 h3", res(3, 14, 7), "M10 14 h14", "M0 22 h3", res(3, 22, 7), "M10 22 h14", amp(24, 18), "M36 18 h12", "M18 14 v-10 h4", res(22, 4, 8), "M30 4 h10 v14"],
+  inAmp: [amp(6, 7), amp(6, 21), amp(30, 14), "M0 5 h6", "M0 23 h6", "M18 7 h6 v5 h6", "M18 21 h6 v-5 h6", "M42 14 h6", resV(3, 11, 6)],
   adc: [
     "M0 14 h10",
     "M10 4 h22 l10 10 l-10 10 h-22 Z",

@@ -6,7 +6,7 @@
  */
 import { memo } from "react";
 import { Handle, Position, type NodeProps } from "@xyflow/react";
-import type { NodeKind } from "@/lib/chain/types";
+import { isSourceKind, type NodeKind } from "@/lib/chain/types";
 import { cx } from "@/components/ui/cx";
 import { useEditor } from "@/lib/store/editor-context";
 import { STAGE_CATALOG, paramRule, paramUnit } from "@/lib/store/stage-catalog";
@@ -43,7 +43,7 @@ function CardShell({ props, children, status }: { props: CardProps; children: Re
       data-status={status ?? "none"}
       aria-label={`${title}, ${spec.title}, ${props.id}${status ? `, status ${status}` : ""}`}
     >
-      {kind !== "source" && <Handle type="target" position={Position.Left} className="!h-3 !w-3 !border-graphite-500 !bg-paper-raised" />}
+      {!isSourceKind(kind) && <Handle type="target" position={Position.Left} className="!h-3 !w-3 !border-graphite-500 !bg-paper-raised" />}
       <div className="flex items-start gap-1.5">
         <Pictogram kind={kind} className="mt-0.5 shrink-0 text-graphite-700" />
         <div className="min-w-0 flex-1">
@@ -129,7 +129,7 @@ const SourceCard = memo(function SourceCard(props: CardProps) {
   const safety = props.data.params.safety as string | undefined;
   return (
     <CardShell props={props}>
-      <Values kind="source" params={props.data.params} />
+      <Values kind={props.type as NodeKind} params={props.data.params} />
       {safety && safety !== "low-voltage" && (
         <p className="mt-1 rounded bg-[#f5eddf] px-1.5 py-0.5 text-[10.5px] font-medium text-graphite-900" data-testid="card-safety">
           <span aria-hidden className="text-status-tight">▲ </span>
@@ -179,5 +179,13 @@ export const nodeTypes = {
   rcLowpass: PassiveCard,
   rcHighpass: PassiveCard,
   adc: AdcCard,
+  bridge: SourceCard,
+  photodiode: SourceCard,
+  piezo: SourceCard,
+  thermocouple: SourceCard,
+  transimpedance: OpAmpCard,
+  chargeAmp: OpAmpCard,
+  differenceAmp: OpAmpCard,
+  inAmp: OpAmpCard,
 } satisfies Record<NodeKind, React.ComponentType<CardProps>>;
 

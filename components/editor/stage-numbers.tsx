@@ -5,6 +5,7 @@
  * figures; for a node not analysed yet, the reason in words.
  */
 import type { StageResult } from "@/lib/chain/types";
+import { isSourceKind } from "@/lib/chain/types";
 import { useEditor } from "@/lib/store/editor-context";
 import type { DraftNode } from "@/lib/store/draft";
 import { fmt, fmtDb, fmtGain, fmtVolts } from "./format";
@@ -31,7 +32,7 @@ export function StageNumbers({ node }: { node: DraftNode }) {
   const reason = useEditor((s) => s.live?.reasonById[node.id]);
   const warnings = useEditor((s) => s.live?.warningsByNode[node.id]);
 
-  if (node.kind === "source") return null;
+  if (isSourceKind(node.kind)) return null;
   if (!stage && !adc) {
     return (
       <section className="border-t border-paper-rule pt-2 text-[12px] text-graphite-500" data-testid="stage-numbers">

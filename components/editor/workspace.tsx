@@ -7,6 +7,7 @@
 import { useCallback, useEffect, useRef, useState } from "react";
 import { useRouter } from "next/navigation";
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
+import { isSourceKind } from "@/lib/chain/types";
 import { ReactFlowProvider, useReactFlow } from "@xyflow/react";
 import { Notice } from "@/components/ui/notice";
 import { SafetyCaution } from "@/components/safety-caution";
@@ -244,7 +245,7 @@ function WorkspaceBar({ role, run, keysOpen, setKeysOpen }: { role: ChainDto["ro
 }
 
 function Banners() {
-  const safety = useEditor((s) => s.doc.nodes.find((n) => n.kind === "source")?.params.safety as string | undefined);
+  const safety = useEditor((s) => (s.doc.nodes.find((n) => isSourceKind(n.kind))?.params as { safety?: string } | undefined)?.safety as string | undefined);
   const conflict = useEditor((s) => s.save === "conflict");
   return (
     <>

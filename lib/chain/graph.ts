@@ -3,7 +3,15 @@
  * parser produced: every read here is defensive, so the rules are reported together with field errors
  * instead of hiding behind them.
  */
-import { OPAMP_KINDS, type NodeKind } from "./types";
+import {
+  CURRENT_INPUT_KINDS,
+  CURRENT_SOURCE_KINDS,
+  DIFFERENTIAL_INPUT_KINDS,
+  DIFFERENTIAL_SOURCE_KINDS,
+  OPAMP_KINDS,
+  isSourceKind,
+  type NodeKind,
+} from "./types";
 
 export type Level = "complete" | "draft";
 
@@ -71,7 +79,7 @@ export function graphIssues(doc: unknown, level: Level): RawIssue[] {
       return;
     }
     let ok = true;
-    if (to.kind === "source") {
+    if (isSourceKind(to.kind)) {
       out.push({ path: ["edges", k, "to"], message: `leads into the source ${q(to.id)}; a source takes no input` });
       ok = false;
     }
@@ -87,7 +95,22 @@ export function graphIssues(doc: unknown, level: Level): RawIssue[] {
       });
       ok = false;
     }
+    const pairing = pairingProblem(from, to);
+    if (pairing) {
+      out.push({ path: ["edges", k, "to"], message: pairing });
+      ok = false;
+    }
     if (!ok) return;
+    if (singleFeed(from.kind, to.kind) || singleFeed(from.kind, kindOfFirstChild(children.get(from.id), byId))) {
+      const first = children.get(from.id);
+      if (first && first.length) {
+        out.push({
+          path: ["edges", k, "from"],
+          message: `gives ${q(from.id)} a second output; a ${String(from.kind)} source that feeds ${KIND_NOUN[String(to.kind)] ?? "a differential or current-input stage"} is wired to that one stage only`,
+        });
+        return;
+      }
+    }
     parent.set(to.id, { from: from.id, edge: k });
     const list = children.get(from.id);
     if (list) list.push(to.id);
@@ -97,7 +120,7 @@ export function graphIssues(doc: unknown, level: Level): RawIssue[] {
   const inLoop = findLoops(refs, parent, out);
 
   if (level === "complete") {
-    const sources = refs.filter((r) => r.kind === "source");
+    const sources = refs.filter((r) => isSourceKind(r.kind));
     if (sources.length === 0 && refs.length > 0) {
       out.push({ path: ["nodes"], message: "has no source; a chain starts at exactly one source" });
     } else if (sources.length > 1) {
@@ -119,6 +142,43 @@ export function graphIssues(doc: unknown, level: Level): RawIssue[] {
     if (nodes.length === 0) out.push({ path: ["nodes"], message: "is empty; a chain starts at exactly one source" });
   }
   return out;
+}
+
+const KIND_NOUN: Record<string, string> = {
+  differenceAmp: "a difference amplifier",
+  inAmp: "an instrumentation amplifier",
+  transimpedance: "a transimpedance amplifier",
+  chargeAmp: "a charge amplifier",
+};
+const has = (list: readonly unknown[], k: unknown) => list.includes(k);
+
+/**
+ * The sensor pairing rules (chain-format.md, "Sensor sources"): a differential pair (bridge,
+ * thermocouple) feeds only a difference or instrumentation amplifier, and those take only a pair; a
+ * transimpedance or charge amplifier takes its current straight from a photodiode or piezo element.
+ */
+function pairingProblem(from: NodeRef, to: NodeRef): string | null {
+  const fromDiff = has(DIFFERENTIAL_SOURCE_KINDS, from.kind);
+  if (fromDiff && !has(DIFFERENTIAL_INPUT_KINDS, to.kind)) {
+    return `joins ${q(to.id)} (${String(to.kind)}) to the differential output of ${q(from.id)} (${String(from.kind)}); a bridge or thermocouple feeds only a difference amplifier (differenceAmp) or an instrumentation amplifier (inAmp)`;
+  }
+  if (!fromDiff && has(DIFFERENTIAL_INPUT_KINDS, to.kind)) {
+    return `feeds ${KIND_NOUN[String(to.kind)]} ${q(to.id)} from ${q(from.id)} (${String(from.kind)}), which gives one voltage; it takes a differential pair, straight from a bridge or thermocouple source`;
+  }
+  if (has(CURRENT_INPUT_KINDS, to.kind) && !has(CURRENT_SOURCE_KINDS, from.kind)) {
+    return `feeds ${KIND_NOUN[String(to.kind)]} ${q(to.id)} from ${q(from.id)} (${String(from.kind)}); it takes a current into its virtual ground, straight from a photodiode or piezo source`;
+  }
+  return null;
+}
+
+/** A differential source, or a current source feeding a current-input stage, feeds that one stage. */
+function singleFeed(fromKind: unknown, toKind: unknown): boolean {
+  if (has(DIFFERENTIAL_SOURCE_KINDS, fromKind)) return true;
+  return has(CURRENT_SOURCE_KINDS, fromKind) && has(CURRENT_INPUT_KINDS, toKind);
+}
+
+function kindOfFirstChild(kids: string[] | undefined, byId: Map<string, NodeRef>): unknown {
+  return kids && kids.length ? byId.get(kids[0])?.kind : undefined;
 }
 
 function checkPartRefs(parts: unknown, nodes: unknown[], out: RawIssue[]): void {

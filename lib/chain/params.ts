@@ -31,6 +31,13 @@ const VREF = opt(VOLTS, 0);
 /** The optional gain network of the Sallen-Key sections (gain 1 + rf/rg; both null: unity gain). */
 const GAIN_RF = opt({ ...OHMS, nullMeans: "unity gain (the output tied to (−))" }, null);
 const GAIN_RG = opt({ ...OHMS, nullMeans: "unity gain (no resistor from (−) to vref)" }, null);
+const SAFETY: ParamSpec = { words: SAFETY_VALUES, required: false, default: "low-voltage" };
+// Absent, null (sensitivity) or "" (unit) all mean none declared; the schema fills in nothing.
+const SENSITIVITY: ParamSpec = {
+  rule: { ...VOLTS, unit: "none", note: "(the source's output unit, V, A or C, per unit of the measurand; not 0)", nullMeans: "no declared sensitivity" },
+  required: false,
+};
+const UNIT: ParamSpec = { maxLength: SOURCE_UNIT_LENGTH, required: false };
 
 /** Params per kind, in the order chain-format.md gives them. */
 export const PARAM_SPECS: Readonly<Record<NodeKind, Readonly<Record<string, ParamSpec>>>> = {
@@ -63,6 +70,70 @@ export const PARAM_SPECS: Readonly<Record<NodeKind, Readonly<Record<string, Para
   // filters: high-pass sections
   sallenKeyHighpass: { c1: req(FARADS), c2: req(FARADS), r1: req(OHMS), r2: req(OHMS), rf: GAIN_RF, rg: GAIN_RG, vref: VREF },
   mfbHighpass: { c1: req(FARADS), c2: req(FARADS), c3: req(FARADS), r1: req(OHMS), r2: req(OHMS), vref: VREF },
+  // ---- sensor sources (issue 14): sensitivity and unit as on `source`, in the source's own output unit
+  bridge: {
+    excitation: req({ unit: "volt", bound: "positive" }),
+    fullScale: req({ unit: "none", bound: "positive", note: "(V per V of excitation: 0.002 is 2 mV/V)" }),
+    loadLow: opt({ unit: "none", bound: "any", range: { min: -1, max: 1 }, note: "(a fraction of full scale)" }, 0),
+    loadHigh: opt({ unit: "none", bound: "any", range: { min: -1, max: 1 }, note: "(a fraction of full scale)" }, 1),
+    offset: opt({ unit: "none", bound: "nonNegative", note: "(± zero balance, V per V of excitation)" }, 0),
+    resistance: req(OHMS),
+    vcm: opt({ ...VOLTS, nullMeans: "half the excitation" }, null),
+    fLow: opt({ unit: "hertz", bound: "nonNegative" }, 0),
+    fHigh: req({ unit: "hertz", bound: "positive" }),
+    noiseDensity: opt({ unit: "V/√Hz", bound: "nonNegative" }, 0),
+    safety: SAFETY,
+    sensitivity: SENSITIVITY,
+    unit: UNIT,
+  },
+  photodiode: {
+    dc: opt({ unit: "ampere", bound: "nonNegative" }, 0),
+    dcSpread: opt({ unit: "ampere", bound: "nonNegative" }, 0),
+    amplitude: req({ unit: "ampere", bound: "nonNegative" }),
+    fLow: req({ unit: "hertz", bound: "nonNegative" }),
+    fHigh: req({ unit: "hertz", bound: "positive" }),
+    capacitance: req(FARADS),
+    shuntResistance: req(OHMS),
+    darkCurrent: opt({ unit: "ampere", bound: "nonNegative" }, 0),
+    noiseDensity: opt({ unit: "A/√Hz", bound: "nonNegative" }, 0),
+    safety: SAFETY,
+    sensitivity: SENSITIVITY,
+    unit: UNIT,
+  },
+  piezo: {
+    amplitude: req({ unit: "none", bound: "nonNegative", note: "(coulombs, peak)" }),
+    fLow: req({ unit: "hertz", bound: "nonNegative" }),
+    fHigh: req({ unit: "hertz", bound: "positive" }),
+    capacitance: req(FARADS),
+    leakage: req(OHMS),
+    safety: SAFETY,
+    sensitivity: SENSITIVITY,
+    unit: UNIT,
+  },
+  thermocouple: {
+    seebeck: req({ unit: "none", bound: "positive", note: "(V/K, the mean over tLow..tHigh)" }),
+    tLow: req({ unit: "none", bound: "any", note: "(°C)" }),
+    tHigh: req({ unit: "none", bound: "any", note: "(°C)" }),
+    tCold: opt({ unit: "none", bound: "any", note: "(°C)" }, 25),
+    coldJunctionError: opt({ unit: "none", bound: "nonNegative", note: "(± kelvin)" }, 0),
+    leadResistance: opt({ unit: "ohm", bound: "nonNegative" }, 0),
+    vcm: opt(VOLTS, 0),
+    fHigh: req({ unit: "hertz", bound: "positive" }),
+    safety: SAFETY,
+    sensitivity: SENSITIVITY,
+    unit: UNIT,
+  },
+  // ---- front-end stages (issue 14)
+  transimpedance: { rf: req(OHMS), cf: opt({ unit: "farad", bound: "nonNegative" }, 0), vref: VREF, cin: opt({ unit: "farad", bound: "nonNegative" }, 0) },
+  chargeAmp: { cf: req(FARADS), rf: req(OHMS), vref: VREF, cin: opt({ unit: "farad", bound: "nonNegative" }, 0) },
+  differenceAmp: { r1: req(OHMS), r2: req(OHMS), r3: req(OHMS), r4: req(OHMS), vref: VREF },
+  inAmp: {
+    rg: req(OHMS),
+    rf: opt(OHMS, 25e3),
+    rd: opt(OHMS, 10e3),
+    vref: VREF,
+    cmrrDb: opt({ unit: "dB", bound: "positive", nullMeans: "no common-mode error beyond the resistor model" }, null),
+  },
   adc: {
     bits: req({ unit: "none", bound: "positive", integer: { min: 1, max: 32 } }),
     sampleRate: req({ unit: "hertz", bound: "positive" }),
@@ -86,13 +157,27 @@ export const KIND_WORDS: Readonly<Record<NodeKind, string>> = {
   sallenKeyHighpass: "a Sallen-Key high-pass",
   mfbHighpass: "an MFB high-pass",
   adc: "an ADC",
+  bridge: "a bridge sensor",
+  photodiode: "a photodiode",
+  piezo: "a piezo element",
+  thermocouple: "a thermocouple",
+  transimpedance: "a transimpedance amplifier",
+  chargeAmp: "a charge amplifier",
+  differenceAmp: "a difference amplifier",
+  inAmp: "an instrumentation amplifier",
 };
 
 /** Pairs of params where the first must be strictly below the second, whenever both are present. */
 const ORDERED_PARAMS: Partial<Record<NodeKind, readonly [string, string, string][]>> = {
   source: [["fLow", "fHigh", "Hz"]],
   adc: [["vinLow", "vinHigh", "V"]],
+  bridge: [["loadLow", "loadHigh", "of full scale"], ["fLow", "fHigh", "Hz"]],
+  photodiode: [["fLow", "fHigh", "Hz"]],
+  piezo: [["fLow", "fHigh", "Hz"]],
+  thermocouple: [["tLow", "tHigh", "°C"]],
 };
+
+const SOURCE_KIND_SET = new Set<NodeKind>(["source", "bridge", "photodiode", "piezo", "thermocouple"]);
 
 export interface ParamIssue {
   key: string;
@@ -112,7 +197,7 @@ export function crossParamIssues(kind: NodeKind, params: Record<string, unknown>
       out.push({ key: hi, message: `must be above ${lo} (${hi} is ${b} ${unit}, ${lo} is ${a} ${unit})` });
     }
   }
-  if (kind === "source" && params.sensitivity === 0) {
+  if (SOURCE_KIND_SET.has(kind) && params.sensitivity === 0) {
     out.push({ key: "sensitivity", message: "must not be 0: give the volts per unit of the measurand, or null for none" });
   }
   if (complete && kind === "noninverting" && typeof params.rg === "number" && (params.rf === null || params.rf === undefined)) {

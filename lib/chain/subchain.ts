@@ -9,7 +9,7 @@
  * source (chain-format.md, "Loading is exact"), so a path may stop at an op-amp stage whose successors
  * are unfinished: what it shows up to there is exact.
  */
-import type { ChainIssue, DraftChain, DraftChainNode } from "./types";
+import { isSourceKind, type ChainIssue, type DraftChain, type DraftChainNode } from "./types";
 import { reachableFrom } from "./graph";
 
 export interface SubchainPlan {
@@ -23,6 +23,8 @@ const q = (s: string) => JSON.stringify(s);
 function loadSensitive(node: DraftChainNode): boolean {
   if (node.kind === "rcLowpass" || node.kind === "rcHighpass") return true;
   if (node.kind === "source") return typeof node.params.resistance === "number" && node.params.resistance > 0;
+  // a photodiode or piezo element is a Norton source: its point is loaded by what it feeds
+  if (node.kind === "photodiode" || node.kind === "piezo") return true;
   return false;
 }
 
@@ -42,7 +44,7 @@ export function planSubchain(draft: DraftChain, problemOf: (node: DraftChainNode
   }
   const none = (message: string, path = "nodes"): SubchainPlan => ({ keep: new Set(), issues: [...issues, { path, message }] });
 
-  const sources = nodes.filter((n) => n.kind === "source");
+  const sources = nodes.filter((n) => isSourceKind(n.kind));
   if (sources.length === 0) return none("has no source yet; the analysis starts at the source");
   const source = sources[0];
   if (sources.length > 1) {

@@ -109,6 +109,90 @@ export interface SallenKeyHighpassParams { c1: number; c2: number; r1: number; r
 /** MFB high-pass: c1 Vin→A, r1 A→vref, c2 A→out, c3 A→(−), r2 (−)→out, (+) at vref. */
 export interface MfbHighpassParams { c1: number; c2: number; c3: number; r1: number; r2: number; vref: number }
 // --- end filters ---
+// ---- sensor sources and the front-end stages that serve them (issue 14; chain-format.md "Sensor sources")
+/** Full-bridge sensor (load cell, pressure bridge): a differential voltage pair around a common mode. */
+export interface BridgeParams {
+  /** excitation across the bridge, V */
+  excitation: number;
+  /** rated output at full scale, V per V of excitation (0.002 is 2 mV/V) */
+  fullScale: number;
+  /** the measured range as fractions of full scale (−1..1), low < high */
+  loadLow: number;
+  loadHigh: number;
+  /** ± zero-balance spread, V per V of excitation */
+  offset: number;
+  /** output resistance of the bridge (equal arms: the arm resistance), Ω */
+  resistance: number;
+  /** common-mode voltage of the output pair, V; null = excitation/2 */
+  vcm: number | null;
+  fLow: number;
+  fHigh: number;
+  noiseDensity: number;
+  safety: Safety;
+  sensitivity?: number | null;
+  unit?: string;
+}
+/** Photodiode: a current source with its junction capacitance and shunt resistance (Norton form). */
+export interface PhotodiodeParams {
+  /** DC photocurrent (ambient light included), A */
+  dc: number;
+  dcSpread: number;
+  /** signal current, A peak */
+  amplitude: number;
+  fLow: number;
+  fHigh: number;
+  /** junction capacitance, F */
+  capacitance: number;
+  shuntResistance: number;
+  /** dark current, A (adds to the DC and to the shot noise) */
+  darkCurrent: number;
+  /** extra current noise, A/√Hz (shot and shunt noise are computed) */
+  noiseDensity: number;
+  safety: Safety;
+  sensitivity?: number | null;
+  unit?: string;
+}
+/** Piezo element: a charge source with its capacitance and leakage resistance. */
+export interface PiezoParams {
+  /** signal charge, C peak */
+  amplitude: number;
+  fLow: number;
+  fHigh: number;
+  capacitance: number;
+  leakage: number;
+  safety: Safety;
+  sensitivity?: number | null;
+  unit?: string;
+}
+/** Thermocouple: a differential EMF seebeck·(t − tCold) with its lead resistance. */
+export interface ThermocoupleParams {
+  /** mean Seebeck coefficient over [tLow, tHigh], V/K */
+  seebeck: number;
+  /** measured hot-junction range, °C */
+  tLow: number;
+  tHigh: number;
+  /** cold-junction (reference) temperature, °C */
+  tCold: number;
+  /** ± error of the cold-junction compensation, K */
+  coldJunctionError: number;
+  /** resistance of each lead, Ω */
+  leadResistance: number;
+  /** common-mode bias the front end gives the floating junction, V */
+  vcm: number;
+  fHigh: number;
+  safety: Safety;
+  sensitivity?: number | null;
+  unit?: string;
+}
+/** Transimpedance amplifier: the sensor current into (−), rf ∥ cf feedback, (+) at vref. */
+export interface TransimpedanceParams { rf: number; cf: number; vref: number; cin: number }
+/** Charge amplifier: the same circuit, cf sets the gain (V per C) and rf the DC path. */
+export interface ChargeAmpParams { cf: number; rf: number; vref: number; cin: number }
+/** Four-resistor difference amplifier: (−) input via r1 (r2 feedback), (+) input via r3 onto r4 to vref. */
+export interface DifferenceAmpParams { r1: number; r2: number; r3: number; r4: number; vref: number }
+/** Three-op-amp instrumentation amplifier: gain 1 + 2·rf/rg, a unity difference stage of four rd to vref. */
+export interface InAmpParams { rg: number; rf: number; rd: number; vref: number; cmrrDb: number | null }
+
 export interface AdcParams {
   bits: number;
   sampleRate: number;
@@ -141,6 +225,14 @@ export type MfbLowpassNode = OpAmpNodeBase & { kind: "mfbLowpass"; params: MfbLo
 export type SallenKeyHighpassNode = OpAmpNodeBase & { kind: "sallenKeyHighpass"; params: SallenKeyHighpassParams };
 export type MfbHighpassNode = OpAmpNodeBase & { kind: "mfbHighpass"; params: MfbHighpassParams };
 export type AdcNode = NodeBase & { kind: "adc"; params: AdcParams };
+export type BridgeNode = NodeBase & { kind: "bridge"; params: BridgeParams };
+export type PhotodiodeNode = NodeBase & { kind: "photodiode"; params: PhotodiodeParams };
+export type PiezoNode = NodeBase & { kind: "piezo"; params: PiezoParams };
+export type ThermocoupleNode = NodeBase & { kind: "thermocouple"; params: ThermocoupleParams };
+export type TransimpedanceNode = OpAmpNodeBase & { kind: "transimpedance"; params: TransimpedanceParams };
+export type ChargeAmpNode = OpAmpNodeBase & { kind: "chargeAmp"; params: ChargeAmpParams };
+export type DifferenceAmpNode = OpAmpNodeBase & { kind: "differenceAmp"; params: DifferenceAmpParams };
+export type InAmpNode = OpAmpNodeBase & { kind: "inAmp"; params: InAmpParams };
 
 export type ChainNode =
   | SourceNode
@@ -154,7 +246,15 @@ export type ChainNode =
   | MfbLowpassNode
   | SallenKeyHighpassNode
   | MfbHighpassNode
-  | AdcNode;
+  | AdcNode
+  | BridgeNode
+  | PhotodiodeNode
+  | PiezoNode
+  | ThermocoupleNode
+  | TransimpedanceNode
+  | ChargeAmpNode
+  | DifferenceAmpNode
+  | InAmpNode;
 
 export type NodeKind = ChainNode["kind"];
 export type OpAmpNode = Extract<ChainNode, { rails: Rails }>;
@@ -174,6 +274,14 @@ export const NODE_KINDS: readonly NodeKind[] = [
   "sallenKeyHighpass",
   "mfbHighpass",
   "adc",
+  "bridge",
+  "photodiode",
+  "piezo",
+  "thermocouple",
+  "transimpedance",
+  "chargeAmp",
+  "differenceAmp",
+  "inAmp",
 ];
 export const OPAMP_KINDS: readonly OpAmpKind[] = [
   "inverting",
@@ -184,7 +292,24 @@ export const OPAMP_KINDS: readonly OpAmpKind[] = [
   "mfbLowpass",
   "sallenKeyHighpass",
   "mfbHighpass",
+  "transimpedance",
+  "chargeAmp",
+  "differenceAmp",
+  "inAmp",
 ];
+
+/** Every kind that starts a chain (exactly one per chain). */
+export type SourceKind = "source" | "bridge" | "photodiode" | "piezo" | "thermocouple";
+export type AnySourceNode = Extract<ChainNode, { kind: SourceKind }>;
+export const SOURCE_KINDS: readonly SourceKind[] = ["source", "bridge", "photodiode", "piezo", "thermocouple"];
+/** Sources whose output is a differential pair: only a difference or instrumentation amplifier may follow. */
+export const DIFFERENTIAL_SOURCE_KINDS: readonly SourceKind[] = ["bridge", "thermocouple"];
+/** Sources whose output is a current (photodiode) or a charge (piezo). */
+export const CURRENT_SOURCE_KINDS: readonly SourceKind[] = ["photodiode", "piezo"];
+/** Stages that take a differential pair, and stages that take a current into a virtual ground. */
+export const DIFFERENTIAL_INPUT_KINDS: readonly NodeKind[] = ["differenceAmp", "inAmp"];
+export const CURRENT_INPUT_KINDS: readonly NodeKind[] = ["transimpedance", "chargeAmp"];
+export const isSourceKind = (k: unknown): k is SourceKind => (SOURCE_KINDS as readonly unknown[]).includes(k);
 
 export interface Edge {
   from: string;

@@ -28,6 +28,9 @@ import { pathNoise, pathNoiseDensity, pathNoiseDensityBy } from "./noise";
 import { ratioMagAt } from "./poly";
 import { toMagnitudePhase } from "./response";
 import { isOpAmpKind } from "./topology";
+import { isSourceKind } from "../chain/types";
+import { sourceSignal } from "./sensors";
+import { frontEndChecks } from "./sensors-checks";
 import { ENGINE_VERSION } from "./version";
 
 class Warnings {
@@ -190,8 +193,8 @@ export function analyzeChain(chain: Chain, opts: AnalyzeOptions = {}): AnalysisR
   const topo = cc.topology;
   const nodes = topo.nodes;
   const src = nodes[0];
-  if (src.kind !== "source") throw new Error("chain must start at its source");
-  const sp = src.params;
+  if (!isSourceKind(src.kind)) throw new Error("chain must start at its source");
+  const sp = sourceSignal(src);
   const { fMin, fMax } = chain.analysis;
 
   if (sp.safety !== "low-voltage") {
@@ -225,7 +228,7 @@ export function analyzeChain(chain: Chain, opts: AnalyzeOptions = {}): AnalysisR
   // ---- per-node results (shared by every path through the node)
   const stageResults = new Map<number, StageResult>();
   nodes.forEach((node, i) => {
-    if (node.kind === "source" || node.kind === "adc") return;
+    if (i === 0 || node.kind === "adc") return;
     const ideal = idealCharacteristics(node);
     const dc = op.out[i];
     const figures = band[i];
@@ -328,6 +331,12 @@ export function analyzeChain(chain: Chain, opts: AnalyzeOptions = {}): AnalysisR
       margins,
       ...(cause ? { cause } : {}),
     });
+    // the checks of the sensor front-end stages (sensors-checks.ts)
+    const extra = frontEndChecks(chain, st, i, { op, band, amp, usable: usableRange, allowed, W: (code, message) => W.add(node.id, code, message) });
+    if (extra) {
+      Object.assign(res, extra.figures);
+      if (extra.clip) res.status = "clip";
+    }
     stageResults.set(i, res);
   });
 
@@ -389,10 +398,8 @@ function adcFigures(
 ): AdcResult {
   const node = cc.topology.nodes[i];
   if (node.kind !== "adc") throw new Error("not an ADC");
-  const src = cc.topology.nodes[0];
-  if (src.kind !== "source") throw new Error("no source");
   const { bits, sampleRate, vinLow, vinHigh } = node.params;
-  const { fHigh, amplitude } = src.params;
+  const { fHigh, amplitude } = sourceSignal(cc.topology.nodes[0]);
   const span = vinHigh - vinLow;
   const lsb = span / 2 ** bits;
   const quantNoiseRms = lsb / Math.sqrt(12);

@@ -25,7 +25,8 @@ import type { Chain, ChainNode, NodeKind, OpAmpNode } from "../chain/types";
 import { TWO_PI } from "./constants";
 import { openLoop, type OpenLoop } from "./open-loop";
 import { limitAtZero } from "./poly";
-import { stageModel, type InternalSourceType, type StageModel } from "./stage-models";
+import { sourceSignal } from "./sensors";
+import { NO_INPUT, stageModel, type InternalSourceType, type StageInput, type StageModel } from "./stage-models";
 import { buildTopology, isOpAmpKind, type Topology } from "./topology";
 
 const ROLE_SOURCE_SECTION = 1; // source with resistance > 0: an L-section from the EMF
@@ -36,6 +37,7 @@ const ROLE_RC_HP = 5;
 const ROLE_ADC = 6;
 /** coefficients per polynomial in the vectorised kernel (degree ≤ 4: the MFB high-pass input admittance) */
 const KC = 5;
+const ROLE_NORTON = 7; // photodiode or piezo into a voltage stage: i (or s·q) into Ys ∥ the loads
 
 /** What a transfer source is, for noise densities and DC roles. */
 export type TransferSourceType = "emf" | "passive-r" | InternalSourceType | "drift";
@@ -184,6 +186,8 @@ class FastChain implements CompiledChain {
     Gdi: Float64Array;
   };
   private readonly stack: Int32Array;
+  /** 1 for a piezo source (a charge: the current is s·q) */
+  private readonly isCharge: Uint8Array;
 
   constructor(chain: Chain) {
     const topo = buildTopology(chain);
@@ -214,12 +218,26 @@ class FastChain implements CompiledChain {
     this.limH = new Float64Array(n);
     this.limY = new Float64Array(n);
 
+    this.isCharge = new Uint8Array(n);
     topo.nodes.forEach((node: ChainNode, i) => {
       this.inPoint[i] = i === 0 ? n : topo.parent[i];
       switch (node.kind) {
         case "source":
           this.role[i] = node.params.resistance > 0 ? ROLE_SOURCE_SECTION : ROLE_SOURCE_DRIVER;
           break;
+        case "bridge":
+        case "thermocouple":
+          // the pair's legs belong to the one differential stage it feeds
+          this.role[i] = ROLE_SOURCE_DRIVER;
+          break;
+        case "photodiode":
+        case "piezo": {
+          const child = topo.children[i][0];
+          const k = child === undefined ? null : topo.nodes[child].kind;
+          this.role[i] = k === "transimpedance" || k === "chargeAmp" ? ROLE_SOURCE_DRIVER : ROLE_NORTON;
+          this.isCharge[i] = node.kind === "piezo" ? 1 : 0;
+          break;
+        }
         case "rcLowpass":
           this.role[i] = ROLE_RC_LP;
           break;
@@ -339,6 +357,16 @@ class FastChain implements CompiledChain {
             throw new Error("retune: the source resistance changed between zero and non-zero");
           this.valA[i] = node.params.resistance;
           break;
+        case "bridge":
+        case "thermocouple":
+          break;
+        case "photodiode":
+        case "piezo": {
+          const sh = sourceSignal(node).shunt!;
+          this.valA[i] = sh.r;
+          this.valB[i] = sh.c;
+          break;
+        }
         case "rcLowpass":
         case "rcHighpass":
           this.valA[i] = node.params.r;
@@ -351,7 +379,7 @@ class FastChain implements CompiledChain {
         default: {
           const partKey = "part" in node ? node.part : null;
           const ol = openLoop(partKey ? chain.parts[partKey] : undefined);
-          const model = stageModel(node as OpAmpNode, ol);
+          const model = stageModel(node as OpAmpNode, ol, this.stageInput(ordered, i));
           this.models[i] = model;
           this.openLoops[i] = ol;
           if (first) this.srcVals[i] = new Float64Array(6 * model.sources.length);
@@ -384,6 +412,16 @@ class FastChain implements CompiledChain {
 
   retune(chain: Chain): void {
     this.loadValues(chain, false);
+  }
+
+  /** What a stage wired straight to a sensor source takes over from it (sensors.ts). */
+  private stageInput(ordered: ChainNode[], i: number): StageInput {
+    const p = this.topology.parent[i];
+    if (p !== 0 || this.role[0] !== ROLE_SOURCE_DRIVER) return NO_INPUT;
+    const src = ordered[0];
+    if (src.kind === "source") return NO_INPUT;
+    const sig = sourceSignal(src);
+    return { leg: sig.output === "differential" ? sig.resistance / 2 : 0, shunt: sig.shunt, charge: sig.output === "charge" };
   }
 
   /**
@@ -452,6 +490,29 @@ class FastChain implements CompiledChain {
           hr[k] = 1;
           hi[k] = 0;
           yr[k] = g;
+          yi[k] = 0;
+        }
+        continue;
+      }
+      if (r === ROLE_NORTON) {
+        const kk = kids[i];
+        const g = 1 / valA[i];
+        const c = valB[i];
+        const q = this.isCharge[i] === 1;
+        for (let k = 0; k < nf; k++) {
+          let br = g;
+          let bi = W[k] * c;
+          for (let j = 0; j < kk.length; j++) {
+            br += Yr[kk[j]][k];
+            bi += Yi[kk[j]][k];
+          }
+          const inv = 1 / (br * br + bi * bi);
+          // 1/(Ys + YL), times jω for a charge
+          const tr = br * inv;
+          const ti = -bi * inv;
+          hr[k] = q ? -W[k] * ti : tr;
+          hi[k] = q ? W[k] * tr : ti;
+          yr[k] = 0;
           yi[k] = 0;
         }
         continue;
@@ -526,6 +587,11 @@ class FastChain implements CompiledChain {
         Gi[i] = w * valB[i];
         Sr[i] = 1 / valA[i];
       } else if (r === ROLE_SOURCE_SECTION) Gr[i] = 1 / valA[i];
+      else if (r === ROLE_NORTON) {
+        // looking back up from a Norton source's point: its shunt admittance
+        Gr[i] = 1 / valA[i];
+        Gi[i] = w * valB[i];
+      }
     }
     for (let i = 0; i <= n; i++) {
       const k = this.kids[i];
@@ -598,7 +664,7 @@ class FastChain implements CompiledChain {
     const { role, Gr, Gi, Sr, Si, Yr, Yi, Ur, Ui, RRr, RRi, isDriver, inPoint } = this;
     for (let i = 0; i < n; i++) {
       const r = role[i];
-      if (r !== ROLE_RC_LP && r !== ROLE_RC_HP && r !== ROLE_SOURCE_SECTION) continue;
+      if (r !== ROLE_RC_LP && r !== ROLE_RC_HP && r !== ROLE_SOURCE_SECTION && r !== ROLE_NORTON) continue;
       const u = inPoint[i];
       if (isDriver[u]) {
         Ur[i] = Sr[i] + Gr[i];

@@ -3,6 +3,9 @@
 /** Boltzmann constant k, J/K. Exact since the 2019 SI redefinition (BIPM SI Brochure, 9th ed.). */
 export const BOLTZMANN = 1.380649e-23;
 
+/** Elementary charge q, C. Exact since the 2019 SI redefinition (BIPM SI Brochure, 9th ed.). */
+export const ELEMENTARY_CHARGE = 1.602176634e-19;
+
 export const TWO_PI = 2 * Math.PI;
 
 /**

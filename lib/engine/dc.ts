@@ -13,6 +13,7 @@
  */
 import type { Chain, Interval, Part } from "../chain/types";
 import type { CompiledChain, TransferSource } from "./compile-chain";
+import { chainSource, commonModeError, sourceSignal } from "./sensors";
 
 /** One named term of a DC interval, used to say what drives a stage toward a limit. */
 export interface DcTerm {
@@ -59,6 +60,15 @@ export function dcValue(chain: Chain, s: TransferSource): { value: number; symme
     case "passive-r":
       if (node.kind !== "rcHighpass" || node.params.vbias === 0) return null;
       return { value: node.params.vbias, symmetric: false, cause: "reference", what: "vbias" };
+    case "vcm": {
+      // the common-mode voltage of the pair feeding this stage (sensors.ts)
+      const v = sourceSignal(chainSource(chain)).vcm;
+      return v === 0 ? null : { value: v, symmetric: false, cause: "reference", what: "common-mode voltage" };
+    }
+    case "cm-error": {
+      const v = commonModeError(chain, node);
+      return v === 0 ? null : { value: v, symmetric: true, cause: "offset", what: "common-mode error" };
+    }
     case "vref": {
       const v = "vref" in node.params ? (node.params as { vref: number }).vref : 0;
       return v === 0 ? null : { value: v, symmetric: false, cause: "reference", what: "vref" };
@@ -80,8 +90,8 @@ export function dcValue(chain: Chain, s: TransferSource): { value: number; symme
 }
 
 function pointFrom(chain: Chain, cc: CompiledChain, re: Float64Array): DcPoint {
-  const src = chain.nodes.find((n) => n.kind === "source");
-  const srcParams = src && src.kind === "source" ? src.params : null;
+  const src = chainSource(chain);
+  const srcParams = sourceSignal(src);
   const driftFrom: string[] = [];
   let finite = true;
   for (let k = 0; k < cc.sources.length; k++) {
@@ -138,7 +148,7 @@ export function operatingPoint(chain: Chain, cc: CompiledChain): OperatingPoint 
     } else plus.push(null);
     const kind = cc.kinds[i];
     const h = cc.stageAt(i).hRe;
-    stageGain.push(kind === "integrator" || kind === "adc" || kind === "source" || !Number.isFinite(h) ? null : h);
+    stageGain.push(kind === "integrator" || kind === "adc" || i === 0 || !Number.isFinite(h) ? null : h);
   }
   return { out, plus, stageGain };
 }

@@ -12,7 +12,9 @@
  * powers add. Integration in u = ln f by adaptive Gauss–Kronrod with exact band limits.
  */
 import type { Chain, NoiseContribution, Part } from "../chain/types";
-import { BOLTZMANN, NOISE_REL_TOL } from "./constants";
+import { BOLTZMANN, ELEMENTARY_CHARGE, NOISE_REL_TOL, TWO_PI } from "./constants";
+import { sourceSignal } from "./sensors";
+import { isSourceKind } from "../chain/types";
 import type { CompiledChain } from "./compile-chain";
 import { integrateLog } from "./grids";
 
@@ -26,11 +28,13 @@ interface NoiseSources {
   transfer: Int32Array;
   white: Float64Array;
   corner: Float64Array;
+  /** 1 where the density is a current but the transfer is per unit of charge (piezo): divided by ω² */
+  perCharge: Uint8Array;
 }
 
 function noiseSources(chain: Chain, cc: CompiledChain): NoiseSources {
   const kT4 = 4 * BOLTZMANN * chain.analysis.temperatureK;
-  const list: { nodeId: string; element: string; transfer: number; white: number; corner: number }[] = [];
+  const list: { nodeId: string; element: string; transfer: number; white: number; corner: number; perCharge?: boolean }[] = [];
   const partFor = (id: string): Part | undefined => {
     const node = chain.nodes.find((n) => n.id === id);
     const key = node && "part" in node ? node.part : null;
@@ -43,9 +47,18 @@ function noiseSources(chain: Chain, cc: CompiledChain): NoiseSources {
     switch (s.type) {
       case "emf": {
         const src = chain.nodes.find((n) => n.id === s.nodeId);
-        if (src?.kind !== "source") return;
-        add("source", src.params.noiseDensity ** 2);
-        add("resistance", kT4 * src.params.resistance);
+        if (!src || !isSourceKind(src.kind)) return;
+        const sig = sourceSignal(src);
+        add("source", sig.noiseDensity ** 2);
+        // a differential pair's resistance is in its legs, which the stage it feeds carries
+        if (sig.output === "voltage") add("resistance", kT4 * sig.resistance);
+        if (sig.output === "current") {
+          // shot noise 2·q·I of the DC current (Schottky 1918) and the shunt's Johnson current 4kT/R
+          add("shot", 2 * ELEMENTARY_CHARGE * sig.shotCurrent);
+          add("shunt", kT4 / sig.shunt!.r);
+        }
+        if (sig.output === "charge" && kT4 / sig.shunt!.r > 0)
+          list.push({ nodeId: s.nodeId, element: "leakage", transfer: k, white: kT4 / sig.shunt!.r, corner: 0, perCharge: true });
         return;
       }
       case "passive-r":
@@ -54,13 +67,13 @@ function noiseSources(chain: Chain, cc: CompiledChain): NoiseSources {
         return;
       case "en": {
         const p = partFor(s.nodeId);
-        add("en", (p?.en ?? 0) ** 2, p?.enCorner ?? 0);
+        add(s.element, (p?.en ?? 0) ** 2, p?.enCorner ?? 0);
         return;
       }
       case "in+":
       case "in-": {
         const p = partFor(s.nodeId);
-        add(s.type, (p?.in ?? 0) ** 2, p?.inCorner ?? 0);
+        add(s.element, (p?.in ?? 0) ** 2, p?.inCorner ?? 0);
         return;
       }
       default:
@@ -73,6 +86,7 @@ function noiseSources(chain: Chain, cc: CompiledChain): NoiseSources {
     transfer: Int32Array.from(list, (x) => x.transfer),
     white: Float64Array.from(list, (x) => x.white),
     corner: Float64Array.from(list, (x) => x.corner),
+    perCharge: Uint8Array.from(list, (x) => (x.perCharge ? 1 : 0)),
   };
 }
 
@@ -82,7 +96,8 @@ function densitiesAt(cc: CompiledChain, ns: NoiseSources, end: number, f: number
   cc.transfersTo(end, false, re, im);
   for (let j = 0; j < ns.transfer.length; j++) {
     const t = ns.transfer[j];
-    out[j][i] = ns.white[j] * (1 + ns.corner[j] / f) * (re[t] * re[t] + im[t] * im[t]);
+    const w2 = ns.perCharge[j] ? (TWO_PI * f) ** 2 : 1;
+    out[j][i] = (ns.white[j] * (1 + ns.corner[j] / f) * (re[t] * re[t] + im[t] * im[t])) / w2;
   }
 }
 

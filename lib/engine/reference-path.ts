@@ -14,6 +14,8 @@
  */
 import Complex from "complex.js";
 import type { Chain, ChainNode, Part } from "../chain/types";
+import { isSourceKind } from "../chain/types";
+import { sourceSignal } from "./sensors";
 import { buildTopology, isOpAmpKind } from "./topology";
 
 const GROUND = "0";
@@ -22,7 +24,9 @@ const EMF = "emf";
 type Element =
   | { t: "R"; a: string; b: string; r: number; key?: string }
   | { t: "C"; a: string; b: string; c: number }
-  | { t: "OA"; p: string; m: string; o: string; part: Part | undefined; stage: string };
+  | { t: "OA"; p: string; m: string; o: string; part: Part | undefined; stage: string }
+  // the sensor current into `node` (a photodiode's i, a piezo's s·q), per unit of the source's output
+  | { t: "I"; node: string; charge: boolean };
 
 /** Something that excites the network, named like the fast path's transfer sources. */
 export type Excitation =
@@ -30,7 +34,8 @@ export type Excitation =
   | { t: "series"; key: string } // the Johnson voltage of a resistor, in series with it
   | { t: "pin"; node: string } // a current drawn from `node` by an op-amp pin
   | { t: "en"; stage: string } // a voltage in series with a stage's (+) input
-  | { t: "known"; node: string }; // a reference node (vref, vbias) at 1 V
+  | { t: "known"; node: string } // a reference node (vref, vbias) at 1 V
+  | { t: "cm" }; // the common-mode voltage of a differential pair at 1 V on both legs
 
 interface Segment {
   root: string;
@@ -52,13 +57,21 @@ interface RefNetwork {
   inPoint: Map<string, string>;
   sourceId: string;
   sourceIsEmf: boolean;
+  /** the legs of a differential source (E+ = vcm + Vd/2, E− = vcm − Vd/2), or null */
+  pair: { pos: string; neg: string } | null;
+  /** excitations of the sensor stages' own elements, by transfer-source key */
+  special: Map<string, Excitation>;
 }
 
 function buildNetwork(chain: Chain): RefNetwork {
   const topo = buildTopology(chain);
   const src = topo.nodes[0];
-  if (src.kind !== "source") throw new Error("first node must be the source");
-  const rs = src.params.resistance;
+  if (!isSourceKind(src.kind)) throw new Error("first node must be the source");
+  const sig = sourceSignal(src);
+  const special = new Map<string, Excitation>();
+  const firstKind = topo.children[0].length ? topo.nodes[topo.children[0][0]].kind : null;
+  const norton = sig.shunt !== null && firstKind !== "transimpedance" && firstKind !== "chargeAmp";
+  const rs = src.kind === "source" ? sig.resistance : 0;
   const outPoint = new Map<string, string>();
   const plusPoint = new Map<string, string>();
   const inPoint = new Map<string, string>();
@@ -67,11 +80,26 @@ function buildNetwork(chain: Chain): RefNetwork {
   const rootOf = new Map<string, string>();
   const segments: Segment[] = [{ root: EMF, elements: [] }];
   const byRoot = new Map<string, number>([[EMF, 0]]);
-  const sourceIsEmf = !(rs > 0);
+  const sourceIsEmf = !(rs > 0) && !norton;
   const srcPoint = sourceIsEmf ? EMF : src.id;
   outPoint.set(src.id, srcPoint);
   rootOf.set(srcPoint, EMF);
-  if (!sourceIsEmf) segments[0].elements.push({ t: "R", a: EMF, b: src.id, r: rs, key: `${src.id}:resistance` });
+  if (rs > 0) segments[0].elements.push({ t: "R", a: EMF, b: src.id, r: rs, key: `${src.id}:resistance` });
+  if (norton) {
+    // the sensor current into its own shunt, loaded by what it feeds
+    const sh = sig.shunt!;
+    segments[0].elements.push(
+      { t: "I", node: src.id, charge: sig.output === "charge" },
+      { t: "R", a: src.id, b: GROUND, r: sh.r },
+      { t: "C", a: src.id, b: GROUND, c: sh.c },
+    );
+  }
+  const pair = sig.output === "differential" ? { pos: `${src.id}.pos`, neg: `${src.id}.neg` } : null;
+  if (pair) {
+    dcKnown.set(pair.pos, sig.vcm + sig.dc / 2);
+    dcKnown.set(pair.neg, sig.vcm - sig.dc / 2);
+  }
+  const leg = pair ? sig.resistance / 2 : 0;
 
   const partOf = (node: ChainNode): Part | undefined => {
     const key = "part" in node ? node.part : null;
@@ -97,6 +125,16 @@ function buildNetwork(chain: Chain): RefNetwork {
       R(id, m, g.rf, "rf");
       if (g.rg != null) R(vref, m, g.rg, "rg");
       return m;
+    };
+    /** the pair's legs into this stage: E± behind half the differential resistance each */
+    const legs = (sid: string) => {
+      if (!pair) throw new Error(`${sid} needs a differential source`);
+      if (!(leg > 0)) return { P: pair.pos, N: pair.neg };
+      const P = `${sid}.P`;
+      const N = `${sid}.N`;
+      R(pair.pos, P, leg, "leg+");
+      R(pair.neg, N, leg, "leg-");
+      return { P, N };
     };
     if (isOpAmpKind(node.kind)) {
       outPoint.set(id, id);
@@ -186,13 +224,83 @@ function buildNetwork(chain: Chain): RefNetwork {
         if (node.params.inputResistance !== null) R(vin, GROUND, node.params.inputResistance, "rin");
         outPoint.set(id, vin);
         break;
+      case "transimpedance":
+      case "chargeAmp": {
+        // the sensor current into (−) with the sensor's shunt; rf ∥ cf feedback; (+) at vref
+        const sh = sig.shunt!;
+        el.push({ t: "I", node: m, charge: sig.output === "charge" });
+        el.push({ t: "R", a: m, b: GROUND, r: sh.r });
+        C(m, GROUND, sh.c);
+        if (node.params.cin > 0) C(m, GROUND, node.params.cin);
+        R(id, m, node.params.rf, "rf");
+        if (node.params.cf > 0) C(id, m, node.params.cf);
+        el.push({ t: "OA", p: vref, m, o: id, part: partOf(node), stage: id });
+        dcKnown.set(vref, node.params.vref);
+        plusPoint.set(id, vref);
+        break;
+      }
+      case "differenceAmp": {
+        const { P, N } = legs(id);
+        R(N, m, node.params.r1, "r1");
+        R(id, m, node.params.r2, "r2");
+        R(P, p, node.params.r3, "r3");
+        R(vref, p, node.params.r4, "r4");
+        el.push({ t: "OA", p, m, o: id, part: partOf(node), stage: id });
+        dcKnown.set(vref, node.params.vref);
+        plusPoint.set(id, p);
+        special.set(`${id}:in+`, { t: "pin", node: p });
+        special.set(`${id}:vcm`, { t: "cm" });
+        break;
+      }
+      case "inAmp": {
+        const { P, N } = legs(id);
+        const { rf, rg, rd } = node.params;
+        const o1 = `${id}.o1`;
+        const o2 = `${id}.o2`;
+        const b = `${id}.b`;
+        const p3 = `${id}.p3`;
+        const m3 = `${id}.m3`;
+        el.push({ t: "OA", p: P, m: a, o: o1, part: partOf(node), stage: `${id}#1` });
+        el.push({ t: "OA", p: N, m: b, o: o2, part: partOf(node), stage: `${id}#2` });
+        R(o1, a, rf, "rf1");
+        R(o2, b, rf, "rf2");
+        R(a, b, rg, "rg");
+        R(o1, p3, rd, "rd1");
+        R(vref, p3, rd, "rd2");
+        R(o2, m3, rd, "rd3");
+        R(id, m3, rd, "rd4");
+        el.push({ t: "OA", p: p3, m: m3, o: id, part: partOf(node), stage: `${id}#3` });
+        dcKnown.set(vref, node.params.vref);
+        plusPoint.set(id, P);
+        const ex: [string, Excitation][] = [
+          ["en1", { t: "en", stage: `${id}#1` }],
+          ["en2", { t: "en", stage: `${id}#2` }],
+          ["en3", { t: "en", stage: `${id}#3` }],
+          ["in+1", { t: "pin", node: P }],
+          ["in+2", { t: "pin", node: N }],
+          ["in-1", { t: "pin", node: a }],
+          ["in-2", { t: "pin", node: b }],
+          ["in+3", { t: "pin", node: p3 }],
+          ["in-3", { t: "pin", node: m3 }],
+          ["vcm", { t: "cm" }],
+        ];
+        for (const [k, v] of ex) special.set(`${id}:${k}`, v);
+        break;
+      }
       case "source":
+      case "bridge":
+      case "photodiode":
+      case "piezo":
+      case "thermocouple":
         throw new Error("a chain has one source");
     }
   }
-  const childRoots = segments.map((s) => s.elements.filter((e) => e.t === "OA").map((e) => (e as { o: string }).o));
+  // internal op-amp outputs of a stage (an in-amp's o1, o2) drive nothing beyond their own stage
+  const childRoots = segments.map((s) =>
+    s.elements.filter((e) => e.t === "OA" && byRoot.has(e.o)).map((e) => (e as { o: string }).o),
+  );
   const prepared = segments.map((s) => prepareSegment(s, dcKnown));
-  return { segments, prepared, byRoot, childRoots, dcKnown, outPoint, plusPoint, inPoint, sourceId: src.id, sourceIsEmf };
+  return { segments, prepared, byRoot, childRoots, dcKnown, outPoint, plusPoint, inPoint, sourceId: src.id, sourceIsEmf, pair, special };
 }
 
 /** 1/A(s) of the single-pole model, or null for an infinite gain; A itself for the zero-gain case. */
@@ -263,6 +371,7 @@ function prepareSegment(seg: Segment, dcKnown: Map<string, number>): PreparedSeg
   };
   for (const e of seg.elements) {
     if (e.t === "OA") [e.p, e.m, e.o].forEach(note);
+    else if (e.t === "I") note(e.node);
     else [e.a, e.b].forEach(note);
   }
   const opRows = new Set<number>();
@@ -320,6 +429,9 @@ function solveSegment(
     }
   }
   if (ex?.t === "pin") inject(ex.node, new Complex(-1, 0));
+  if (ex?.t === "emf") {
+    for (const e of seg.elements) if (e.t === "I") inject(e.node, e.charge ? s : new Complex(1, 0));
+  }
   for (const e of seg.elements) {
     if (e.t !== "OA") continue;
     const row = idx.get(e.o);
@@ -354,6 +466,10 @@ function solveAll(net: RefNetwork, fHz: number, ex: Excitation, dcValues: boolea
   const s = new Complex(0, 2 * Math.PI * fHz);
   const known = (x: string): Complex => {
     if (ex.t === "known" && ex.node === x) return new Complex(1, 0);
+    if (net.pair && (x === net.pair.pos || x === net.pair.neg)) {
+      const half = x === net.pair.pos ? 0.5 : -0.5;
+      return new Complex((ex.t === "emf" ? half : 0) + (ex.t === "cm" ? 1 : 0) + (dcValues ? net.dcKnown.get(x)! : 0), 0);
+    }
     return new Complex(dcValues ? (net.dcKnown.get(x) ?? 0) : 0, 0);
   };
   const voltages = new Map<string, Complex>();
@@ -388,7 +504,7 @@ export function referenceResponse(
       const r = out.get(node.id)!;
       const vo = voltages.get(net.outPoint.get(node.id)!) ?? null;
       r.cum.push(vo);
-      if (node.kind === "source") r.ind.push(vo);
+      if (isSourceKind(node.kind)) r.ind.push(vo);
       else if (node.kind === "adc") r.ind.push(new Complex(1, 0));
       else {
         const vi = voltages.get(net.inPoint.get(node.id)!) ?? null;
@@ -404,6 +520,9 @@ function excitationFor(net: RefNetwork, chain: Chain, key: string): Excitation |
   const [id, element] = key.split(":");
   const node = chain.nodes.find((x) => x.id === id);
   if (!node) return null;
+  const special = net.special.get(key);
+  if (special) return special;
+  if (element === "cm-error") return null; // an error referred to the output, with no element of its own
   if (element === "emf") return { t: "emf" };
   if (element === "en") return { t: "en", stage: id };
   if (element === "vref") return { t: "known", node: `${id}.vref` };
@@ -431,5 +550,9 @@ export function referenceTransfer(chain: Chain, key: string, nodeId: string, plu
   const point = plus ? net.plusPoint.get(nodeId) : net.outPoint.get(nodeId);
   if (!point) return null;
   if (point.endsWith(".vref")) return new Complex(ex.t === "known" && ex.node === point ? 1 : 0, 0);
+  if (net.pair && (point === net.pair.pos || point === net.pair.neg)) {
+    const half = point === net.pair.pos ? 0.5 : -0.5;
+    return new Complex((ex.t === "emf" ? half : 0) + (ex.t === "cm" ? 1 : 0), 0);
+  }
   return voltages.get(point) ?? new Complex(0, 0);
 }

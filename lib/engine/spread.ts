@@ -30,6 +30,8 @@
  * (exact for figures monotone in each part; `outside` counts builds that fell outside, which can happen
  * where a figure is not monotone, e.g. a margin set by a peak that moves in frequency).
  */
+import { isSourceKind } from "../chain/types";
+import { sourceSignal } from "./sensors";
 import { PARAM_SPECS } from "../chain/params";
 import type { Chain, ChainNode, Part } from "../chain/types";
 import { bandFigures } from "./analyze";
@@ -278,7 +280,7 @@ export class P2Quantiles {
 /** Every resistor and capacitor that varies, in document order. */
 export function spreadParts(chain: Chain): SpreadPart[] {
   const out: SpreadPart[] = [];
-  const sourceId = chain.nodes.find((n) => n.kind === "source")?.id;
+  const sourceId = chain.nodes.find((n) => isSourceKind(n.kind))?.id;
   const overrides = chain.tolerances.overrides ?? {};
   for (const node of chain.nodes) {
     if (node.id === sourceId || node.kind === "adc") continue;
@@ -345,10 +347,11 @@ function figuresOf(cc: CompiledChain, order: Int32Array, headroom: Uint8Array): 
     margin: new Float64Array(n).fill(NaN),
     clip: new Uint8Array(n),
   };
-  if (src.kind !== "source") throw new Error("chain must start at its source");
-  const amp = src.params.amplitude;
+  if (!isSourceKind(src.kind)) throw new Error("chain must start at its source");
+  const sig = sourceSignal(src);
+  const amp = sig.amplitude;
   const op = operatingPoint(chain, cc);
-  const band = bandFigures(cc, src.params.fLow, src.params.fHigh, PEAK_TOL, headroom);
+  const band = bandFigures(cc, sig.fLow, sig.fHigh, PEAK_TOL, headroom);
   for (let i = 1; i < n; i++) {
     const node = nodes[i];
     f.dcGain[i] = num(op.stageGain[i]);

@@ -19,6 +19,8 @@
  * Units: s in rad/s, resistances in ohms, capacitances in farads; Iin/Vin in siemens, V/A for currents.
  */
 import type {
+  DifferenceAmpParams,
+  InAmpParams,
   IntegratorParams,
   InvertingParams,
   LossyIntegratorParams,
@@ -33,8 +35,12 @@ import type {
 import type { OpenLoop } from "./open-loop";
 import { add, mul, poly, scale, S, ZERO, type Poly } from "./poly";
 
-/** How an internal source enters the network (decides its noise density and DC role). */
-export type InternalSourceType = "johnson" | "en" | "in+" | "in-" | "vref";
+/**
+ * How an internal source enters the network (decides its noise density and DC role). `vcm` is the
+ * common-mode voltage of the differential pair a difference or instrumentation amplifier takes;
+ * `cm-error` a ± common-mode error referred to that stage's output (resistor tolerance, the in-amp's CMRR).
+ */
+export type InternalSourceType = "johnson" | "en" | "in+" | "in-" | "vref" | "vcm" | "cm-error";
 
 export interface StageResponse {
   /** numerator of the output voltage */
@@ -452,9 +458,147 @@ function mfbHighpass({ c1, c2, c3, r1, r2 }: MfbHighpassParams, { n, d }: OpenLo
 }
 // --- end filters ------------------------------------------------------------------------------------------
 
-/** Builds the closed-form model of an op-amp stage for the given open-loop gain. */
-export function stageModel(node: OpAmpNode, ol: OpenLoop): StageModel {
+// ---------------------------------------------------------------------------------------------------------
+// Front-end stages for sensor sources (issue 14). Each holds the part of the source it is wired to:
+// a current-input stage the sensor's shunt admittance, a differential stage the legs of the pair.
+
+/** What a stage takes over from the source that feeds it. */
+export interface StageInput {
+  /** resistance of each leg of a differential pair (half the pair's differential resistance), Ω */
+  leg: number;
+  /** the Norton shunt of a current or charge source */
+  shunt: { r: number; c: number } | null;
+  /** the source gives a charge (the stage sees the current s·q) */
+  charge: boolean;
+}
+
+export const NO_INPUT: StageInput = { leg: 0, shunt: null, charge: false };
+
+/**
+ * Transimpedance and charge amplifiers: the sensor current i into (−) with the sensor's shunt
+ * Ys = (1 + s·rsh·cs)/rsh to ground (cs = sensor capacitance + cin), rf ∥ cf from out to (−), (+) at vref.
+ * With ys = 1 + s·rsh·cs, yf = 1 + s·rf·cf and Σ = rf·ys + rsh·yf (Ys + Yf over the common factor rf·rsh):
+ * den = d·Σ + n·rsh·yf; Vo/i = −n·rf·rsh/den (→ −rf/(1 + s·rf·cf) ideal); a charge input multiplies by s
+ * (→ −s·rf/(1 + s·rf·cf), a passband of −1/cf above 1/(2π·rf·cf)). en and vref: n·Σ (the noise gain
+ * 1 + Zf/Zs); in− drawn from (−): n·rf·rsh; rf's Johnson voltage (out → (−)): −n·rsh. The source is
+ * wired to this stage only, so the current it draws is not needed (iin = 0).
+ */
+function currentInput(kind: OpAmpKind, rf: number, cf: number, cin: number, input: StageInput, { n, d }: OpenLoop): StageModel {
+  if (!input.shunt) throw new Error(`${kind} needs a photodiode or piezo source`);
+  const rsh = input.shunt.r;
+  const cs = input.shunt.c + cin;
+  const ys = poly(1, rsh * cs);
+  const yf = poly(1, rf * cf);
+  const sig = add(scale(ys, rf), scale(yf, rsh));
+  const den = add(mul(d, sig), mul(n, yf, poly(rsh)));
+  const sig0 = scale(n, -rf * rsh);
+  const vin = resp(input.charge ? mul(S, sig0) : sig0, ZERO, ZERO);
+  const enR = resp(mul(n, sig), ZERO, ZERO);
+  return {
+    kind,
+    den,
+    vin,
+    sources: [
+      johnson("rf", rf, resp(scale(n, -rsh), ZERO, ZERO)),
+      src("en", "en", enR),
+      src("in-", "in-", resp(scale(n, rf * rsh), ZERO, ZERO)),
+      src("vref", "vref", { ...enR, p: den }),
+    ],
+  };
+}
+
+/**
+ * Difference amplifier on a differential pair E± = vcm ± Vd/2 with legs of `leg` ohms: E− → leg → r1 → (−),
+ * r2 out → (−); E+ → leg → r3 → (+), r4 (+) → vref. The legs add to r1 and r3 exactly (the op-amp's (+)
+ * draws no current), so with a = r1 + leg, c = r3 + leg, k = r4/(c + r4):
+ * den = d·(a + r2) + n·a; Vo/Vd = n·((a + r2)·k + r2)/2 / den (→ r2/r1 for r4/r3 = r2/r1, no legs);
+ * vcm: n·((a + r2)·k − r2) (zero only for a matched ratio: the resistor-mismatch common-mode gain);
+ * vref: n·(a + r2)·(1 − k). Johnson voltages: r1 and leg− −n·r2, r2 (out → (−)) −n·a, r3 and leg+
+ * n·(a + r2)·k, r4 (vref → (+)) n·(a + r2)·(1 − k). (+) pin: k/2 of Vd, k of vcm, 1 − k of vref.
+ */
+function differenceAmp({ r1, r2, r3, r4 }: DifferenceAmpParams, input: StageInput, { n, d }: OpenLoop): StageModel {
+  const a = r1 + input.leg;
+  const c = r3 + input.leg;
+  const k = r4 / (c + r4);
+  const den = add(scale(d, a + r2), scale(n, a));
+  const plusSide = resp(scale(n, (a + r2) * k), ZERO, scale(den, k));
+  const refSide = resp(scale(n, (a + r2) * (1 - k)), ZERO, scale(den, 1 - k));
+  const minusSide = resp(scale(n, -r2), ZERO, ZERO);
+  const sources: InternalSource[] = [johnson("r1", r1, minusSide), johnson("r2", r2, resp(scale(n, -a), ZERO, ZERO)), johnson("r3", r3, plusSide), johnson("r4", r4, refSide)];
+  if (input.leg > 0) sources.push(johnson("leg-", input.leg, minusSide), johnson("leg+", input.leg, plusSide));
+  sources.push(
+    src("en", "en", resp(scale(n, a + r2), ZERO, ZERO)),
+    src("in-", "in-", resp(scale(n, a * r2), ZERO, ZERO)),
+    src("in+", "in+", resp(scale(n, -(a + r2) * c * k), ZERO, scale(den, -c * k))),
+    src("vcm", "vcm", resp(scale(n, (a + r2) * k - r2), ZERO, scale(den, k))),
+    src("cm-error", "cm-error", resp(scale(n, a), ZERO, ZERO)),
+    src("vref", "vref", refSide),
+  );
+  return { kind: "differenceAmp", den, vin: resp(scale(n, ((a + r2) * k + r2) / 2), ZERO, scale(den, k / 2)), sources };
+}
+
+/**
+ * Three-op-amp instrumentation amplifier, one part for all three: A1 and A2 buffer P and N (the pair's
+ * legs behind them) with rf from each output to its (−) and rg between the two (−) nodes; A3 is a unity
+ * difference stage of four rd (o1 → rd → (+) → rd → vref, o2 → rd → (−) → rd → out). Splitting the input
+ * stage into its difference and sum, with K = rg + 2·rf, D1 = d·K + n·rg and D2 = 2d + n:
+ * o1 − o2 = n·(K·(P1 − N1) − rf·rg·(Ja − Jb))/D1 and Vo = n·(o1 − o2 + vref + rd·(Jp − Jm) + 2·en3)/D2, where
+ * J are the currents injected at the (−) nodes a, b of A1, A2 and at A3's pins. So den = D1·D2 and
+ * Vo/Vd = n²·K/den (→ 1 + 2rf/rg ideal); the sum o1 + o2 does not reach the output (matched resistors),
+ * so vcm has no transfer and the part's CMRR enters as the ± cm-error. The (+) pin reported is A1's,
+ * P = vcm + Vd/2 − leg·i1.
+ */
+function inAmp({ rg, rf, rd }: InAmpParams, input: StageInput, { n, d }: OpenLoop): StageModel {
+  const K = rg + 2 * rf;
+  const d1 = add(scale(d, K), scale(n, rg));
+  const d2 = add(scale(d, 2), n);
+  const den = mul(d1, d2);
+  const nn = mul(n, n);
+  const nd1 = mul(n, d1);
+  const diff = (x: number) => resp(scale(nn, x), ZERO, ZERO);
+  const second = (x: number) => resp(scale(nd1, x), ZERO, ZERO);
+  const leg = input.leg;
+  const sources: InternalSource[] = [
+    johnson("rf1", rf, diff(-rg)), // o1 → a
+    johnson("rf2", rf, diff(rg)), // o2 → b
+    johnson("rg", rg, diff(2 * rf)), // a → b
+    johnson("rd1", rd, second(1)), // o1 → A3 (+)
+    johnson("rd2", rd, second(1)), // vref → A3 (+)
+    johnson("rd3", rd, second(-1)), // o2 → A3 (−)
+    johnson("rd4", rd, second(-1)), // out → A3 (−)
+  ];
+  if (leg > 0) sources.push(johnson("leg+", leg, { ...diff(K), p: den }), johnson("leg-", leg, diff(-K)));
+  sources.push(
+    src("en1", "en", diff(K)),
+    src("en2", "en", diff(-K)),
+    src("en3", "en", second(2)),
+    src("in+1", "in+", { ...diff(-leg * K), p: scale(den, -leg) }),
+    src("in+2", "in+", diff(leg * K)),
+    src("in-1", "in-", diff(rf * rg)),
+    src("in-2", "in-", diff(-rf * rg)),
+    src("in+3", "in+", second(-rd)),
+    src("in-3", "in-", second(rd)),
+    src("vcm", "vcm", resp(ZERO, ZERO, den)),
+    src("cm-error", "cm-error", second(1)),
+    src("vref", "vref", second(1)),
+  );
+  return { kind: "inAmp", den, vin: resp(scale(nn, K), ZERO, scale(den, 0.5)), sources };
+}
+
+/**
+ * Builds the closed-form model of an op-amp stage for the given open-loop gain. `input` is what the
+ * stage takes over from a sensor source wired straight to it (the legs of a pair, a Norton shunt).
+ */
+export function stageModel(node: OpAmpNode, ol: OpenLoop, input: StageInput = NO_INPUT): StageModel {
   switch (node.kind) {
+    case "transimpedance":
+      return currentInput("transimpedance", node.params.rf, node.params.cf, node.params.cin, input, ol);
+    case "chargeAmp":
+      return currentInput("chargeAmp", node.params.rf, node.params.cf, node.params.cin, input, ol);
+    case "differenceAmp":
+      return differenceAmp(node.params, input, ol);
+    case "inAmp":
+      return inAmp(node.params, input, ol);
     case "inverting":
       return inverting(node.params, ol);
     case "noninverting":

@@ -4,7 +4,7 @@
  * outgoing edge). The chain is assumed valid and complete (one source, a tree, no cycles).
  */
 import type { Chain, ChainNode, NodeKind, OpAmpKind, PassiveKind } from "../chain/types";
-import { OPAMP_KINDS } from "../chain/types";
+import { OPAMP_KINDS, isSourceKind } from "../chain/types";
 
 export interface Topology {
   /** nodes in depth-first order from the source; every parent precedes its children */
@@ -30,7 +30,7 @@ export function buildTopology(chain: Chain): Topology {
     if (list) list.push(e.to);
     else kids.set(e.from, [e.to]);
   }
-  const source = chain.nodes.find((n) => n.kind === "source");
+  const source = chain.nodes.find((n) => isSourceKind(n.kind));
   if (!source) throw new Error("chain has no source node");
 
   const nodes: ChainNode[] = [];

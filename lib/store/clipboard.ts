@@ -4,6 +4,7 @@
  * chain pastes into another with its op-amp models, and the chain stays self-contained.
  */
 import type { Edge, Part } from "@/lib/chain/types";
+import { isSourceKind } from "@/lib/chain/types";
 import { nextNodeId, nextPartKey, type DraftDoc, type DraftNode } from "./draft";
 
 export const CLIP_FORMAT = "chainwright.fragment/1" as const;
@@ -65,12 +66,12 @@ export function pasteClip(doc: DraftDoc, clip: Clip, offset = { x: 40, y: 40 }):
     parts[newKey] = structuredClone(part);
     partMap.set(key, newKey);
   }
-  const hasSource = doc.nodes.some((n) => n.kind === "source");
+  const hasSource = doc.nodes.some((n) => isSourceKind(n.kind));
   const idMap = new Map<string, string>();
   const skipped: string[] = [];
   const added: DraftNode[] = [];
   for (const n of clip.nodes) {
-    if (n.kind === "source" && (hasSource || added.some((a) => a.kind === "source"))) {
+    if (isSourceKind(n.kind) && (hasSource || added.some((a) => isSourceKind(a.kind)))) {
       skipped.push("the source (a chain has only one)");
       continue;
     }

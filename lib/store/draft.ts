@@ -5,7 +5,7 @@
  * lives in the form, never here.
  */
 import type { AnalysisSettings, Edge, NodeKind, Part, Position, Rails, Tolerances } from "@/lib/chain/types";
-import { CHAIN_FORMAT, OPAMP_KINDS } from "@/lib/chain/types";
+import { CHAIN_FORMAT, OPAMP_KINDS, isSourceKind } from "@/lib/chain/types";
 
 export type ParamValue = number | string | null;
 
@@ -66,13 +66,21 @@ const ID_PREFIX: Record<NodeKind, string> = {
   rcLowpass: "rc",
   rcHighpass: "rc",
   adc: "adc",
+  bridge: "src",
+  photodiode: "src",
+  piezo: "src",
+  thermocouple: "src",
+  transimpedance: "u",
+  chargeAmp: "u",
+  differenceAmp: "u",
+  inAmp: "u",
 };
 
 /** A fresh node id for `kind` that no id in `taken` uses: `u1`, `u2`, `rc1`, `adc1`, `src` (then `src2`). */
 export function nextNodeId(kind: NodeKind, taken: Iterable<string>): string {
   const used = new Set(taken);
   const prefix = ID_PREFIX[kind];
-  if (kind === "source" && !used.has("src")) return "src";
+  if (isSourceKind(kind) && !used.has("src")) return "src";
   for (let i = 1; ; i++) {
     const id = `${prefix}${i}`;
     if (!used.has(id)) return id;

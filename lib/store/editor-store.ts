@@ -8,6 +8,7 @@
  */
 import { createStore, type StoreApi } from "zustand/vanilla";
 import type { NodeKind, Part, Position, Rails, Safety } from "@/lib/chain/types";
+import { isSourceKind } from "@/lib/chain/types";
 import { checkConnection, LAYOUT, tidyLayout, type ConnectionCheck } from "./graph";
 import { CLIP_STORAGE_KEY, makeClip, parseClip, pasteClip, type Clip } from "./clipboard";
 import { isOpAmpKind, lastUsedRails, nextNodeId, nextPartKey, type DraftDoc, type DraftNode, type ParamValue } from "./draft";
@@ -168,7 +169,7 @@ export function createEditorStore(init: EditorInit): EditorStore {
         if (!writable()) return null;
         const { doc, lastRails } = get();
         const after = opts.after ? doc.nodes.find((n) => n.id === opts.after) : undefined;
-        if (kind === "source" && doc.nodes.some((n) => n.kind === "source")) {
+        if (isSourceKind(kind) && doc.nodes.some((n) => isSourceKind(n.kind))) {
           set({ notice: "This chain already has its source; a chain has exactly one." });
           return null;
         }

@@ -4,6 +4,7 @@
  * source or out of an ADC.
  */
 import type { Edge, Position } from "@/lib/chain/types";
+import { isSourceKind } from "@/lib/chain/types";
 import type { DraftDoc } from "./draft";
 
 export type ConnectionCheck = { ok: true } | { ok: false; reason: string };
@@ -15,7 +16,7 @@ export function checkConnection(doc: Pick<DraftDoc, "nodes" | "edges">, from: st
   if (!a || !b) return { ok: false, reason: "Both ends must be nodes of this chain." };
   if (from === to) return { ok: false, reason: "A node cannot feed itself." };
   if (a.kind === "adc") return { ok: false, reason: "An ADC is the end of a path; it feeds nothing." };
-  if (b.kind === "source") return { ok: false, reason: "The source takes no input." };
+  if (isSourceKind(b.kind)) return { ok: false, reason: "The source takes no input." };
   if (doc.edges.some((e) => e.to === to)) return { ok: false, reason: `${to} already has an input; a node takes one.` };
   if (reaches(doc.edges, to, from)) return { ok: false, reason: "That would close a loop; a chain runs one way." };
   return { ok: true };
@@ -59,7 +60,7 @@ export function pathTo(doc: { nodes: readonly { id: string; kind: string }[]; ed
     path.unshift(cur);
   }
   const head = doc.nodes.find((n) => n.id === path[0]);
-  return head?.kind === "source" ? path : [];
+  return head && isSourceKind(head.kind) ? path : [];
 }
 
 /** Card pitch on the canvas (cards are 184 px wide), in flow units. */
@@ -124,5 +125,5 @@ export function tidyLayout(doc: { nodes: readonly { id: string; kind: string }[]
 }
 
 function rootRank(n: { kind: string }): number {
-  return n.kind === "source" ? 0 : 1;
+  return isSourceKind(n.kind) ? 0 : 1;
 }

@@ -7,7 +7,7 @@ import type { NodeKind } from "@/lib/chain/types";
 import type { QuantityUnit } from "@/lib/units";
 import { PARAM_SPECS, type ParamSpec } from "@/lib/chain/params";
 
-export type FieldUnit = Extract<QuantityUnit, "ohm" | "farad" | "volt" | "hertz" | "V/√Hz" | "none">;
+export type FieldUnit = Extract<QuantityUnit, "ohm" | "farad" | "volt" | "hertz" | "V/√Hz" | "ampere" | "A/√Hz" | "none">;
 
 /**
  * How the editor presents one param. The rule (unit, limit, whether null means something, whether the
@@ -154,6 +154,118 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
     starter: { c1: 10e-9, c2: 10e-9, c3: 10e-9, r1: 4.7e3, r2: 22e3 },
     cardFields: [["c1", "c1"], ["c2", "c2"], ["c3", "c3"], ["r1", "r1"], ["r2", "r2"]],
   },
+  // ---- sensor sources and their front-end stages (issue 14)
+  bridge: {
+    kind: "bridge",
+    title: "Bridge sensor",
+    blurb: "Load cell or pressure bridge: a differential pair around excitation/2; feeds a difference or instrumentation amplifier",
+    opAmp: false,
+    fields: [
+      { key: "excitation", label: "Excitation" },
+      { key: "fullScale", label: "Rated output (V/V)" },
+      { key: "loadLow", label: "Range low (of full scale)" },
+      { key: "loadHigh", label: "Range high (of full scale)" },
+      { key: "offset", label: "Zero balance ± (V/V)" },
+      { key: "resistance", label: "Bridge resistance" },
+      { key: "vcm", label: "Common mode (empty: half excitation)" },
+      { key: "fLow", label: "Band low" },
+      { key: "fHigh", label: "Band high" },
+      { key: "noiseDensity", label: "Extra noise density" },
+      { key: "sensitivity", label: "Sensitivity (V per unit)" },
+    ],
+    starter: { excitation: 5, fullScale: 0.002, resistance: 350, fHigh: 10, safety: "low-voltage" },
+    cardFields: [["excitation", "exc"], ["fullScale", "FS V/V"], ["resistance", "R"]],
+  },
+  photodiode: {
+    kind: "photodiode",
+    title: "Photodiode",
+    blurb: "A current source with junction capacitance and shunt resistance; best into a transimpedance amplifier",
+    opAmp: false,
+    fields: [
+      { key: "dc", label: "DC photocurrent" },
+      { key: "dcSpread", label: "DC spread ±" },
+      { key: "amplitude", label: "Signal current peak" },
+      { key: "fLow", label: "Band low" },
+      { key: "fHigh", label: "Band high" },
+      { key: "capacitance", label: "Junction capacitance" },
+      { key: "shuntResistance", label: "Shunt resistance" },
+      { key: "darkCurrent", label: "Dark current" },
+      { key: "noiseDensity", label: "Extra noise density" },
+      { key: "sensitivity", label: "Sensitivity (A per unit)" },
+    ],
+    starter: { amplitude: 1e-6, fLow: 0, fHigh: 1000, capacitance: 50e-12, shuntResistance: 1e9, safety: "low-voltage" },
+    cardFields: [["amplitude", "i pk"], ["capacitance", "Cj"], ["shuntResistance", "Rsh"]],
+  },
+  piezo: {
+    kind: "piezo",
+    title: "Piezo element",
+    blurb: "A charge source with its capacitance and leakage (open-circuit voltage q/C); best into a charge amplifier",
+    opAmp: false,
+    fields: [
+      { key: "amplitude", label: "Signal charge peak (C)" },
+      { key: "fLow", label: "Band low" },
+      { key: "fHigh", label: "Band high" },
+      { key: "capacitance", label: "Capacitance" },
+      { key: "leakage", label: "Leakage resistance" },
+      { key: "sensitivity", label: "Sensitivity (C per unit)" },
+    ],
+    starter: { amplitude: 1e-10, fLow: 1, fHigh: 5000, capacitance: 1e-9, leakage: 1e10, safety: "low-voltage" },
+    cardFields: [["amplitude", "q pk"], ["capacitance", "C"], ["leakage", "Rleak"]],
+  },
+  thermocouple: {
+    kind: "thermocouple",
+    title: "Thermocouple",
+    blurb: "A floating differential EMF seebeck·(t − tCold) with lead resistance; needs a common-mode bias",
+    opAmp: false,
+    fields: [
+      { key: "seebeck", label: "Seebeck coefficient (V/K)" },
+      { key: "tLow", label: "Range low (°C)" },
+      { key: "tHigh", label: "Range high (°C)" },
+      { key: "tCold", label: "Cold junction (°C)" },
+      { key: "coldJunctionError", label: "Cold-junction error ± (K)" },
+      { key: "leadResistance", label: "Lead resistance (each)" },
+      { key: "vcm", label: "Common-mode bias" },
+      { key: "fHigh", label: "Band high" },
+    ],
+    starter: { seebeck: 41e-6, tLow: 0, tHigh: 400, fHigh: 10, vcm: 1.25, safety: "low-voltage" },
+    cardFields: [["seebeck", "S"], ["tLow", "t lo"], ["tHigh", "t hi"]],
+  },
+  transimpedance: {
+    kind: "transimpedance",
+    title: "Transimpedance",
+    blurb: "Current to voltage: −rf/(1 + s·rf·cf); takes a photodiode or piezo current straight in",
+    opAmp: true,
+    fields: [R("rf"), C("cf"), VREF(), { key: "cin", label: "Op-amp input capacitance" }],
+    starter: { rf: 100e3, cf: 10e-12 },
+    cardFields: [["rf", "rf"], ["cf", "cf"]],
+  },
+  chargeAmp: {
+    kind: "chargeAmp",
+    title: "Charge amplifier",
+    blurb: "Charge to voltage: −1/cf above its low corner 1/(2π·rf·cf); takes a piezo straight in",
+    opAmp: true,
+    fields: [C("cf"), R("rf"), VREF(), { key: "cin", label: "Op-amp input capacitance" }],
+    starter: { cf: 1e-9, rf: 1e9 },
+    cardFields: [["cf", "cf"], ["rf", "rf"]],
+  },
+  differenceAmp: {
+    kind: "differenceAmp",
+    title: "Difference amplifier",
+    blurb: "Four resistors: (r2/r1)·(V+ − V−) when r4/r3 = r2/r1; takes a bridge or thermocouple pair",
+    opAmp: true,
+    fields: [R("r1"), R("r2"), R("r3"), R("r4"), VREF()],
+    starter: { r1: 10e3, r2: 100e3, r3: 10e3, r4: 100e3 },
+    cardFields: [["r1", "r1"], ["r2", "r2"], ["r3", "r3"], ["r4", "r4"]],
+  },
+  inAmp: {
+    kind: "inAmp",
+    title: "Instrumentation amp",
+    blurb: "Three op-amps, gain 1 + 2·rf/rg onto vref; takes a bridge or thermocouple pair",
+    opAmp: true,
+    fields: [R("rg"), R("rf", "rf (internal)"), R("rd", "rd (internal)"), VREF(), { key: "cmrrDb", label: "CMRR (dB)" }],
+    starter: { rg: 500 },
+    cardFields: [["rg", "rg"], ["vref", "ref"]],
+  },
   adc: {
     kind: "adc",
     title: "ADC",
@@ -174,6 +286,14 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
 /** Shelf order: the path a signal usually takes. */
 export const SHELF_ORDER: NodeKind[] = [
   "source",
+  "bridge",
+  "photodiode",
+  "piezo",
+  "thermocouple",
+  "inAmp",
+  "differenceAmp",
+  "transimpedance",
+  "chargeAmp",
   "noninverting",
   "inverting",
   "lossyIntegrator",
@@ -195,5 +315,5 @@ export function paramRule(kind: NodeKind, key: string): ParamSpec | undefined {
 /** The unit a param is typed in. */
 export function paramUnit(kind: NodeKind, key: string): FieldUnit {
   const u = PARAM_SPECS[kind][key]?.rule?.unit;
-  return (u === "ohm" || u === "farad" || u === "volt" || u === "hertz" || u === "V/√Hz" ? u : "none") as FieldUnit;
+  return (u === "ohm" || u === "farad" || u === "volt" || u === "hertz" || u === "V/√Hz" || u === "ampere" || u === "A/√Hz" ? u : "none") as FieldUnit;
 }

@@ -166,3 +166,58 @@ export function randomChain(seed: string, size = 7, opts: { integrators?: boolea
   }
   return chainOf(nodes, edges, testParts);
 }
+
+/**
+ * A random valid chain that starts at a sensor source (seeded): a bridge or thermocouple into a difference
+ * or instrumentation amplifier, or a photodiode or piezo element into a transimpedance or charge amplifier
+ * or (Norton form) straight into voltage stages (leakage kept to 1 GΩ: beyond it, transfers that are exactly
+ * zero at DC come out of both solvers as rounding of GΩ-sized transfer impedances); then a random tree of the ordinary kinds as randomChain
+ * grows it. Values log-uniform over wide ranges, a random open-loop form per op-amp stage.
+ */
+export function randomSensorChain(seed: string, size = 5): Chain {
+  const rng = seedrandom(seed);
+  const logU = (lo: number, hi: number) => lo * (hi / lo) ** rng();
+  const pick = <T,>(xs: readonly T[]): T => xs[Math.floor(rng() * xs.length)];
+  const R = () => logU(100, 1e6);
+  const C = () => logU(1e-12, 1e-7);
+  const partKeys = [null, ...Object.keys(testParts)];
+  const op = () => ({ part: pick(partKeys), rails: rails() });
+  const front = pick(["bridge", "thermocouple", "photodiode", "piezo", "photodiode-v", "piezo-v"] as const);
+  const nodes: ChainNode[] = [];
+  const edges: { from: string; to: string }[] = [];
+  const safety = "low-voltage" as const;
+  let head = "src";
+  if (front === "bridge" || front === "thermocouple") {
+    nodes.push(
+      front === "bridge"
+        ? { id: "src", kind: "bridge", params: { excitation: 5, fullScale: 0.002, loadLow: 0, loadHigh: 1, offset: 4e-4, resistance: rng() < 0.2 ? 1 : logU(100, 5e3), vcm: null, fLow: 0, fHigh: 100, noiseDensity: 0, safety } }
+        : { id: "src", kind: "thermocouple", params: { seebeck: 4e-5, tLow: 0, tHigh: 400, tCold: 25, coldJunctionError: 0.5, leadResistance: rng() < 0.3 ? 0 : logU(1, 200), vcm: 1, fHigh: 10, safety } },
+    );
+    const stage: ChainNode =
+      rng() < 0.5
+        ? { id: "fe", kind: "differenceAmp", params: { r1: R(), r2: R(), r3: R(), r4: R(), vref: 0 }, ...op() }
+        : { id: "fe", kind: "inAmp", params: { rg: R(), rf: R(), rd: R(), vref: 0, cmrrDb: rng() < 0.5 ? null : 90 }, ...op() };
+    nodes.push(stage);
+    edges.push({ from: "src", to: "fe" });
+    head = "fe";
+  } else {
+    const charge = front.startsWith("piezo");
+    nodes.push(
+      charge
+        ? { id: "src", kind: "piezo", params: { amplitude: 1e-10, fLow: 1, fHigh: 1e3, capacitance: C(), leakage: logU(1e6, 1e9), safety } }
+        : { id: "src", kind: "photodiode", params: { dc: 1e-6, dcSpread: 0, amplitude: 1e-6, fLow: 0, fHigh: 1e3, capacitance: C(), shuntResistance: logU(1e6, 1e10), darkCurrent: 1e-9, noiseDensity: 0, safety } },
+    );
+    if (!front.endsWith("-v")) {
+      const kind = rng() < 0.5 ? "transimpedance" : "chargeAmp";
+      nodes.push({ id: "fe", kind, params: { rf: R(), cf: rng() < 0.2 && kind === "transimpedance" ? 0 : C(), vref: 0, cin: rng() < 0.5 ? 0 : C() }, ...op() } as ChainNode);
+      edges.push({ from: "src", to: "fe" });
+      head = "fe";
+    }
+  }
+  const tail = randomChain(`${seed}-tail`, size);
+  // graft the tail's tree (without its own source) below `head`
+  const tailSource = tail.nodes[0].id;
+  for (const n of tail.nodes.slice(1)) nodes.push({ ...n, id: `t${n.id}` } as ChainNode);
+  for (const e of tail.edges) edges.push({ from: e.from === tailSource ? head : `t${e.from}`, to: `t${e.to}` });
+  return chainOf(nodes, edges, testParts);
+}
