@@ -22,6 +22,7 @@
  * frequency response). If a stage or the converter still comes inside its margin, the plan is redone with
  * that window shrunk by the excess, up to a few rounds.
  */
+import { chainSource, sourceSignal } from "./sensors";
 import type { AnalysisResult, Chain, ChainNode, OpAmpNode, StageResult } from "../chain/types";
 import { analyzeChain } from "./analyze";
 import { solveStage, type SolvableKind, type SolvedParams } from "./solve";
@@ -164,9 +165,9 @@ function figures(chain: Chain, res: AnalysisResult, adcId: string): SplitFigures
   }
   const adc = path.adc;
   if (adc && adc.status === "clip") clips.push(adc.id);
-  const src = chain.nodes.find((n) => n.kind === "source") as Extract<ChainNode, { kind: "source" }>;
+  const src = sourceSignal(chainSource(chain));
   const acPeak = adc ? (adc.acPeak as number | null) : null;
-  const passGain = acPeak != null && src.params.amplitude > 0 ? acPeak / src.params.amplitude : null;
+  const passGain = acPeak != null && src.amplitude > 0 ? acPeak / src.amplitude : null;
   const noiseRms = path.noise.skipped ? null : path.noise.outputRms;
   return {
     stages,
@@ -196,10 +197,10 @@ function plan(
   squeeze: number[],
   loss: number[],
 ): { steps: PlanStep[]; vbias: Map<number, number>; binding: string | null } {
-  const src = nodes[0] as Extract<ChainNode, { kind: "source" }>;
-  let c = src.params.dc;
-  let d = src.params.dcSpread;
-  let a = src.params.amplitude;
+  const src = sourceSignal(nodes[0]);
+  let c = src.dc;
+  let d = src.dcSpread;
+  let a = src.amplitude;
   const adcNode = nodes[nodes.length - 1] as Extract<ChainNode, { kind: "adc" }>;
   const squeezeW = (w: Window, i: number): Window => {
     const mid = (w.lo + w.hi) / 2;
@@ -342,8 +343,8 @@ function checkWindows(chain: Chain, res: AnalysisResult, path: string[], margin:
 function measureLoss(chain: Chain, res: AnalysisResult, path: string[], loss: number[]): boolean {
   const p = res.paths.find((q) => q.nodes[q.nodes.length - 1] === path[path.length - 1])!;
   const byId = new Map(chain.nodes.map((n) => [n.id, n]));
-  const src = byId.get(path[0]) as Extract<ChainNode, { kind: "source" }>;
-  let prev = src.params.amplitude;
+  const src = sourceSignal(byId.get(path[0])!);
+  let prev = src.amplitude;
   let moved = false;
   for (const st of p.stages as StageResult[]) {
     const i = path.indexOf(st.id);
@@ -374,10 +375,10 @@ export function adviseGainStaging(chain: Chain, opts: AdviceOptions = {}): GainA
   const nodes = path.map((id) => byId.get(id)!);
   const current = figures(chain, before, adcId);
   const notes: string[] = [];
-  const src = nodes[0] as Extract<ChainNode, { kind: "source" }>;
-  if (src.params.fLow > 0 && !nodes.some((n) => n.kind === "rcHighpass") && src.params.dcSpread > src.params.amplitude) {
+  const src = sourceSignal(nodes[0]);
+  if (src.fLow > 0 && !nodes.some((n) => n.kind === "rcHighpass") && src.dcSpread > src.amplitude) {
     notes.push(
-      `The source's DC spread (±${fmtV(src.params.dcSpread)}) is larger than its signal (${fmtV(src.params.amplitude)} peak) and the band starts at ${Number(src.params.fLow.toPrecision(3))} Hz: AC coupling before the first gain (an RC high-pass with its corner about a tenth of that, common practice) would free the range the spread takes.`,
+      `The source's DC spread (±${fmtV(src.dcSpread)}) is larger than its signal (${fmtV(src.amplitude)} peak) and the band starts at ${Number(src.fLow.toPrecision(3))} Hz: AC coupling before the first gain (an RC high-pass with its corner about a tenth of that, common practice) would free the range the spread takes.`,
     );
   }
   if (!nodes.some(isGainNode)) {

@@ -43,6 +43,7 @@
  *
  * Units: seconds, hertz at the edges, volts; ω in rad/s inside.
  */
+import { sourceSignal } from "./sensors";
 import type { Chain, ChainNode, NodeKind, Part, Rails } from "../chain/types";
 import { compileChain, type CompiledChain } from "./compile-chain";
 import { TWO_PI } from "./constants";
@@ -121,6 +122,10 @@ export function loadedTransfers(cc: CompiledChain): NodePlan[] {
   const EMF = -1;
   const src = nodes[0];
   const srcR = src.kind === "source" ? src.params.resistance : 0;
+  // a sensor source is a driver here (its legs or shunt live in the stage it feeds), except a photodiode or
+  // piezo element wired into voltage stages (a Norton section), which this engine does not model yet
+  if ((src.kind === "photodiode" || src.kind === "piezo") && !["transimpedance", "chargeAmp"].includes(kinds[topology.children[0][0]] ?? ""))
+    throw new Error("time domain: a photodiode or piezo element wired straight into a voltage stage is not modelled here yet; put a transimpedance or charge amplifier first");
   const isDriver = (p: number) => (p === EMF ? true : p === 0 ? srcR === 0 : isOpAmpKind(kinds[p]));
   const inPoint = (i: number) => (i === 0 ? EMF : topology.parent[i]);
   const kidsOf = (p: number) => (p === EMF ? (srcR > 0 ? [0] : []) : topology.children[p]);
@@ -516,7 +521,7 @@ export function nominalOperatingPoint(chain: Chain, cc: CompiledChain): Float64A
   const re = new Float64Array(m);
   const im = new Float64Array(m);
   const src = cc.topology.nodes[0];
-  const emfDc = src.kind === "source" ? src.params.dc : 0;
+  const emfDc = sourceSignal(src).dc;
   const fixed = new Float64Array(m);
   const driftNode = new Int32Array(m).fill(-1);
   cc.sources.forEach((s, k) => {
@@ -592,7 +597,7 @@ export function planTimeDomain(chain: Chain, sampleRate: number): TimeDomainPlan
   const baseline = nominalOperatingPoint(chain, cc);
   const nodes = cc.topology.nodes;
   const src = nodes[0];
-  const emfDc = src.kind === "source" ? src.params.dc : 0;
+  const emfDc = sourceSignal(src).dc;
 
   const run = (emf: Float64Array, opts: Omit<RunOptions, "sampleRate"> = {}): WaveformRun => {
     const N = emf.length;
