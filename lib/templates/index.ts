@@ -122,6 +122,34 @@ export const TEMPLATES: ChainTemplate[] = [
       ],
     }),
   },
+  {
+    key: "load-cell",
+    title: "Mooring load cell (bridge into an in-amp)",
+    summary: "350 Ω bridge, 10 mV full scale ±2 mV offset, in-amp on one 5 V supply with a mid-supply reference, MFB anti-alias re-centred on the converter, 16-bit 0–4.096 V ADC.",
+    make: () => ({
+      format: CHAIN_FORMAT,
+      name: "Mooring load cell",
+      notes:
+        "Keelwater Instruments example: a tension/compression load cell on the mooring line, DC to 10 Hz. " +
+        "5 V excitation × 2 mV/V = 10 mV at full load either way, ±2 mV zero balance. The in-amp's reference sits at mid-supply (2.5 V) " +
+        "so its output has equal room both ways; the anti-alias MFB (gain −1) takes vref = 2.274 V so its output, 2·vref − 2.5 V = 2.048 V at zero load, " +
+        "sits at the converter's mid-scale. Gain 1 + 2·25 kΩ/412 Ω ≈ 122 puts ±12 mV at ±1.47 V: about three quarters of the converter's range with room for the offset. " +
+        "Make rg smaller to see which check fires first (the converter's range), and much smaller to see the in-amp's internal nodes run out of swing.",
+      analysis: { ...BASE_ANALYSIS, fMin: 0.01, fMax: 1e5 },
+      parts: { p1: { ...RRIO_CMOS } },
+      nodes: [
+        { id: "src", kind: "bridge", label: "Load cell", params: { excitation: 5, fullScale: 0.002, loadLow: -1, loadHigh: 1, offset: 4e-4, resistance: 350, vcm: null, fLow: 0, fHigh: 10, noiseDensity: 0, safety: "low-voltage", unit: "kN" }, position: { x: 40, y: 40 } },
+        { id: "u1", kind: "inAmp", label: "In-amp", params: { rg: 412, rf: 25e3, rd: 10e3, vref: 2.5, cmrrDb: 100 }, part: "p1", rails: { low: 0, high: 5 }, position: { x: 260, y: 40 } },
+        { id: "u2", kind: "mfbLowpass", label: "Anti-alias", params: { r1: 10e3, r2: 10e3, r3: 10e3, c1: 1.8e-6, c2: 390e-9, vref: 2.274 }, part: "p1", rails: { low: 0, high: 5 }, position: { x: 480, y: 40 } },
+        { id: "adc1", kind: "adc", params: { bits: 16, sampleRate: 10e3, vinLow: 0, vinHigh: 4.096, inputResistance: null }, position: { x: 700, y: 40 } },
+      ],
+      edges: [
+        { from: "src", to: "u1" },
+        { from: "u1", to: "u2" },
+        { from: "u2", to: "adc1" },
+      ],
+    }),
+  },
 ];
 
 export function findTemplate(key: string | null | undefined): ChainTemplate | undefined {

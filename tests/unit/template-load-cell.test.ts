@@ -1,0 +1,56 @@
+/**
+ * The load-cell template: a new user's channel fills most of the 0–4.096 V converter with no stage
+ * clipping, and pushing the in-amp gain shows which check fires. Figures derived from the template's own
+ * values: ±(10 mV + 2 mV) × (1 + 2·25 kΩ/rg) around the converter's mid-scale 2.048 V.
+ */
+import { describe, expect, it } from "vitest";
+import { findTemplate } from "@/lib/templates";
+import { validateChain } from "@/lib/chain/schema";
+import { analyzeChain } from "@/lib/engine";
+import type { Chain } from "@/lib/chain/types";
+
+function chainWithRg(rg?: number): Chain {
+  const doc = findTemplate("load-cell")!.make();
+  if (rg !== undefined) doc.nodes.find((n) => n.id === "u1")!.params.rg = rg;
+  const v = validateChain(doc);
+  if (!v.ok) throw new Error(JSON.stringify(v.errors));
+  return v.chain;
+}
+
+describe("load-cell template", () => {
+  it("uses most of the converter's range with every stage and the converter ok", () => {
+    const r = analyzeChain(chainWithRg());
+    const path = r.paths[0];
+    const g = 1 + 50e3 / 412;
+    const adc = path.adc!;
+    // ±12 mV worst-case differential (full load either way plus the zero balance), gain g, unity MFB
+    // the signal alone takes 2·12 mV·g of 4.096 V; the part's offsets and the in-amp's CMRR widen it a little
+    const signalShare = (2 * 0.012 * g) / 4.096;
+    expect(adc.rangeUse!).toBeGreaterThan(signalShare);
+    expect(adc.rangeUse!).toBeLessThan(signalShare + 0.03);
+    expect(adc.rangeUse!).toBeGreaterThan(0.7);
+    expect(adc.status).toBe("ok");
+    for (const st of path.stages) expect(st.status, st.id).toBe("ok");
+    // centred on mid-scale: 2·2.274 − 2.5 = 2.048 V
+    const mid = ((adc.peakIn as { min: number; max: number }).min + (adc.peakIn as { min: number; max: number }).max) / 2;
+    expect(mid).toBeCloseTo(2.048, 3);
+    expect(r.warnings.filter((w) => ["rail-clip", "adc-range", "inamp-common-mode", "input-range"].includes(w.code))).toEqual([]);
+  });
+
+  it("with the gain pushed to ~186 the converter's range check fires first, naming the input", () => {
+    const r = analyzeChain(chainWithRg(270));
+    expect(r.paths[0].adc!.status).toBe("clip");
+    const codes = r.warnings.map((w) => w.code);
+    expect(codes).toContain("adc-range");
+    expect(codes).not.toContain("inamp-common-mode");
+    expect(r.warnings.find((w) => w.code === "adc-range")!.message).toMatch(/adc1: the input reaches/);
+  });
+
+  it("with far more gain the in-amp's own output and its internal nodes run out of swing", () => {
+    const r = analyzeChain(chainWithRg(50));
+    const codes = r.warnings.filter((w) => w.nodeId === "u1").map((w) => w.code);
+    expect(codes).toContain("rail-clip");
+    expect(codes).toContain("inamp-common-mode");
+    expect(r.paths[0].stages.find((s) => s.id === "u1")!.status).toBe("clip");
+  });
+});
