@@ -6,6 +6,8 @@
  * declared amplitude at that frequency (from the engine's sweep; phase relative to the source EMF).
  * Pure: no I/O.
  */
+import { isSourceKind } from "@/lib/chain/types";
+import { sourceSignal } from "@/lib/engine/sensors";
 import type { AnalysisResult, Chain, ChainNode, Interval, StageStatus } from "../chain/types";
 import { compileChain } from "../engine";
 import { gainPhase, isFeed, nodeTitle, signalOrder } from "./order";
@@ -53,8 +55,8 @@ export const TEST_FREQUENCY_LIMIT = 12;
  * so a signal generator can be set to them.
  */
 export function defaultTestFrequencies(chain: Chain): number[] {
-  const src = chain.nodes.find((n) => n.kind === "source");
-  const p = src ? (src.params as unknown as Record<string, unknown>) : {};
+  const src = chain.nodes.find((n) => isSourceKind(n.kind));
+  const p = src ? ({ ...sourceSignal(src) } as unknown as Record<string, unknown>) : {};
   const fHigh = typeof p.fHigh === "number" && p.fHigh > 0 ? p.fHigh : 1000;
   const fLowRaw = typeof p.fLow === "number" ? p.fLow : 0;
   const fLow = fLowRaw > 0 ? fLowRaw : fHigh / 10;

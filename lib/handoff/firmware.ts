@@ -16,6 +16,8 @@
  * - Group delay −dφ/dω of the path at the scaling frequency (a low frequency, a thousandth of the source
  *   band's top, for a DC-coupled path): how long a slow change takes to reach the converter.
  */
+import { isSourceKind } from "@/lib/chain/types";
+import { sourceSignal } from "@/lib/engine/sensors";
 import type { AnalysisResult, Chain, ChainNode } from "../chain/types";
 import { compileChain, type CompiledChain } from "../engine";
 import { nominalOf } from "./bring-up";
@@ -79,12 +81,14 @@ export function buildFirmwareScaling(chain: Chain, result: AnalysisResult): Scal
   const index = new Map(cc.nodeIds.map((id, i) => [id, i]));
   const out: ScalingResult[] = [];
   const source = chain.nodes.find((n) => isFeed(chain, n));
-  const sp = (source?.params ?? {}) as unknown as Record<string, unknown>;
-  const srcDc = typeof sp.dc === "number" ? sp.dc : 0;
-  const fLow = typeof sp.fLow === "number" ? sp.fLow : 0;
-  const fHigh = typeof sp.fHigh === "number" ? sp.fHigh : 1;
-  const sensitivity = typeof sp.sensitivity === "number" && sp.sensitivity !== 0 ? sp.sensitivity : null;
-  const unit = typeof sp.unit === "string" ? sp.unit : "";
+  // any source kind through the engine's one signal description (a bridge's DC is its mid-range
+  // differential volts, a thermocouple's sensitivity defaults to its Seebeck coefficient)
+  const sig = source && isSourceKind(source.kind) ? sourceSignal(source) : null;
+  const srcDc = sig ? sig.dc : 0;
+  const fLow = sig ? sig.fLow : 0;
+  const fHigh = sig ? sig.fHigh : 1;
+  const sensitivity = sig && typeof sig.sensitivity === "number" && sig.sensitivity !== 0 ? sig.sensitivity : null;
+  const unit = sig?.unit ?? "";
 
   for (const path of result.paths) {
     const adcRes = path.adc;

@@ -286,14 +286,6 @@ export const STAGE_CATALOG: Record<NodeKind, KindSpec> = {
 /** Shelf order: the path a signal usually takes. */
 export const SHELF_ORDER: NodeKind[] = [
   "source",
-  "bridge",
-  "photodiode",
-  "piezo",
-  "thermocouple",
-  "inAmp",
-  "differenceAmp",
-  "transimpedance",
-  "chargeAmp",
   "noninverting",
   "inverting",
   "lossyIntegrator",
@@ -304,6 +296,15 @@ export const SHELF_ORDER: NodeKind[] = [
   "mfbLowpass",
   "sallenKeyHighpass",
   "mfbHighpass",
+  // sensor sources and their front ends after the first nine (which keep their digit shortcuts)
+  "bridge",
+  "photodiode",
+  "piezo",
+  "thermocouple",
+  "inAmp",
+  "differenceAmp",
+  "transimpedance",
+  "chargeAmp",
   "adc",
 ];
 
