@@ -12,6 +12,7 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import { useForm, useWatch, type Path } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { Safety } from "@/lib/chain/types";
+import { isSourceKind } from "@/lib/chain/types";
 import { crossParamIssues, SAFETY_VALUES, SOURCE_UNIT_LENGTH } from "@/lib/chain/params";
 import { useEditor, useEditorActions } from "@/lib/store/editor-context";
 import { STAGE_CATALOG, paramRule, paramUnit } from "@/lib/store/stage-catalog";
@@ -178,9 +179,9 @@ function NodeSheet({ node, readOnly }: { node: DraftNode; readOnly: boolean }) {
             );
           })}
 
-          {node.kind === "source" && <SourceUnitField node={node} />}
+          {isSourceKind(node.kind) && <SourceUnitField node={node} />}
 
-          {node.kind === "source" && (
+          {isSourceKind(node.kind) && (
             <div className="grid grid-cols-[5.5rem_1fr] items-center gap-x-2">
               <label htmlFor="f-safety" className="text-[12.5px] text-graphite-700">
                 Connection

@@ -123,6 +123,34 @@ export const TEMPLATES: ChainTemplate[] = [
     }),
   },
   {
+    key: "turbidity-tia",
+    title: "Turbidity photodiode into a transimpedance amplifier",
+    summary: "The photodiode as a current source (50 pF, 500 MΩ) into a TIA on 3.3 V, AC coupling to mid-rail, MFB anti-alias, 12-bit ADC.",
+    make: () => ({
+      format: CHAIN_FORMAT,
+      name: "Turbidity photodiode, current input",
+      notes:
+        "Keelwater Instruments example: the forward-scatter photodiode drawn as what it is, a current with its junction capacitance and shunt resistance. " +
+        "The TIA's (+) sits at 3.0 V so the output falls with light; rf = 200 kΩ turns 5 µA of ambient and 2 µA of modulated light into about a volt. " +
+        "cf = 10 pF is above the suggested √(Cin/(2π·rf·GBW)) ≈ 4.5 pF, so the loop keeps a comfortable phase margin; remove it to see the stability check fire.",
+      analysis: { ...BASE_ANALYSIS },
+      parts: { p1: { ...RRIO_CMOS } },
+      nodes: [
+        { id: "src", kind: "photodiode", label: "Photodiode", params: { dc: 5e-6, dcSpread: 0.5e-6, amplitude: 2e-6, fLow: 100, fHigh: 1000, capacitance: 50e-12, shuntResistance: 500e6, darkCurrent: 2e-9, noiseDensity: 0, safety: "low-voltage" }, position: { x: 40, y: 40 } },
+        { id: "u1", kind: "transimpedance", label: "TIA", params: { rf: 200e3, cf: 10e-12, vref: 3.0, cin: 0 }, part: "p1", rails: { low: 0, high: 3.3 }, position: { x: 260, y: 40 } },
+        { id: "rc1", kind: "rcHighpass", label: "To mid-rail", params: { c: 100e-9, r: 100e3, vbias: 1.65 }, position: { x: 480, y: 40 } },
+        { id: "u2", kind: "mfbLowpass", label: "Anti-alias", params: { r1: 4.7e3, r2: 4.7e3, r3: 4.7e3, c1: 22e-9, c2: 4.7e-9, vref: 1.65 }, part: "p1", rails: { low: 0, high: 3.3 }, position: { x: 700, y: 40 } },
+        { id: "adc1", kind: "adc", params: { bits: 12, sampleRate: 20e3, vinLow: 0, vinHigh: 3.3, inputResistance: null }, position: { x: 920, y: 40 } },
+      ],
+      edges: [
+        { from: "src", to: "u1" },
+        { from: "u1", to: "rc1" },
+        { from: "rc1", to: "u2" },
+        { from: "u2", to: "adc1" },
+      ],
+    }),
+  },
+  {
     key: "load-cell",
     title: "Mooring load cell (bridge into an in-amp)",
     summary: "350 Ω bridge, 10 mV full scale ±2 mV offset, in-amp on one 5 V supply with a mid-supply reference, MFB anti-alias re-centred on the converter, 16-bit 0–4.096 V ADC.",

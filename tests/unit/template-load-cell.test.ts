@@ -54,3 +54,19 @@ describe("load-cell template", () => {
     expect(r.paths[0].stages.find((s) => s.id === "u1")!.status).toBe("clip");
   });
 });
+
+describe("turbidity TIA template", () => {
+  it("keeps its loop stable with cf = 10 pF, and the stability check fires without it", () => {
+    const doc = findTemplate("turbidity-tia")!.make();
+    const v = validateChain(doc);
+    if (!v.ok) throw new Error(JSON.stringify(v.errors));
+    const r = analyzeChain(v.chain);
+    const tia = r.paths[0].stages.find((s) => s.id === "u1")! as { stability: { phaseMarginDeg: number } };
+    expect(tia.stability.phaseMarginDeg).toBeGreaterThan(45);
+    expect(r.warnings.some((w) => w.code === "tia-stability")).toBe(false);
+    doc.nodes.find((n) => n.id === "u1")!.params.cf = 0;
+    const bare = validateChain(doc);
+    if (!bare.ok) throw new Error("invalid");
+    expect(analyzeChain(bare.chain).warnings.some((w) => w.code === "tia-stability")).toBe(true);
+  });
+});
