@@ -251,7 +251,8 @@ export function integrateLog(
   if (!(fb > fa) || !(fa > 0)) return result;
   const ua = Math.log(fa);
   const ub = Math.log(fb);
-  const start = Math.max(2, Math.ceil((Math.log10(fb / fa)) * 4));
+  // difference of logs: fb/fa overflows for a band of 300+ decades and the panel count became Infinity (tests/fuzz)
+  const start = Math.max(2, Math.ceil((Math.log10(fb) - Math.log10(fa)) * 4));
   type Panel = { a: number; b: number; k: Float64Array; err: number };
   let panels: Panel[] = [];
   let pending: { a: number; b: number }[] = [];

@@ -9,6 +9,7 @@
  * 1,000 inputs per door in the unit suite; `npm run fuzz` runs 10,000 (FUZZ_RUNS) and prints the tally.
  */
 import fc from "fast-check";
+import { writeFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { idContext, jsonRequest, sessionModule, signInAs } from "../api/session-mock";
 
@@ -48,6 +49,12 @@ afterAll(() => {
   db.cleanup();
 });
 
+/** FUZZ_TRACE=FILE writes each input there before it runs, so the last line names an input that killed the process. */
+function trace(label: string, input: unknown): void {
+  const file = process.env.FUZZ_TRACE;
+  if (file) writeFileSync(file, `${label} ${typeof input === "string" ? input : JSON.stringify(input)}\n`);
+}
+
 function tally(label: string): Tally {
   const t = new Tally();
   tallies.push([label, t]);
@@ -85,6 +92,7 @@ describe("POST /api/analyze under fuzzed bodies", () => {
     await fc.assert(
       fc.asyncProperty(analyzeBody, async (body) => {
         const text = JSON.stringify(body) ?? "null";
+        trace("analyze", text);
         await checkAnswer(await analyzePost(jsonRequest("POST", "/api/analyze", undefined, text), undefined), text, t);
       }),
       { numRuns: RUNS, seed: SEED },
@@ -99,6 +107,7 @@ describe("POST /api/analyze under fuzzed bodies", () => {
     const t = tally("POST /api/analyze (mangled text)");
     await fc.assert(
       fc.asyncProperty(mangledText(analyzeBody), async (text) => {
+        trace("analyze-text", text);
         await checkAnswer(await analyzePost(jsonRequest("POST", "/api/analyze", undefined, text), undefined), text, t);
       }),
       { numRuns: RUNS, seed: SEED + 1 },
@@ -144,6 +153,7 @@ describe("PUT /api/chains/:id under fuzzed saves", () => {
         }
         let text = JSON.stringify(payload) ?? "null";
         if (mangle && text.length > 2) text = text.slice(0, Math.floor(text.length / 2));
+        trace("save", text);
         const res = await savePut(jsonRequest("PUT", `/api/chains/${chainId}`, undefined, text), idContext(chainId));
         const staleVersion = isPlainObject(payload) && Number.isInteger((payload as { baseVersion?: unknown }).baseVersion) && (payload as { baseVersion: number }).baseVersion !== before;
         await checkAnswer(res, text, t, staleVersion ? [409] : []);
@@ -185,6 +195,7 @@ describe("the command line's steps under fuzzed input", () => {
     fc.assert(
       fc.property(fileText, fc.option(fc.integer({ min: 2, max: 600 }), { nil: undefined }), (text, points) => {
         // what scripts/analyze.ts does with a file: JSON.parse (its failure is the "" path: the whole file), then runAnalysis
+        trace("cli", { text, points });
         const parsed = parsedOrUndefined(text);
         if (!parsed.ok) return void t.add("not JSON");
         const outcome = runAnalysis({ chain: parsed.value, ...(points !== undefined ? { points } : {}) });

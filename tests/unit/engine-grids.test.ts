@@ -12,6 +12,15 @@ describe("logGrid", () => {
   });
 });
 
+describe("integrateLog over a band of 300+ decades (found by tests/fuzz: the panel count overflowed)", () => {
+  it("integrates a flat density from 0.1 Hz to 1e308 Hz to fb − fa", () => {
+    const flat = (freqs: Float64Array, out: Float64Array[]) => out[0].fill(1, 0, freqs.length);
+    const [area] = integrateLog(0.1, 1e308, 1, flat, 1e-6);
+    // ∫ 1 df = fb − fa, exactly 1e308 to double precision
+    expect(area / 1e308).toBeCloseTo(1, 6);
+  });
+});
+
 describe("bandGrid", () => {
   it("keeps the band limits exactly and is dense", () => {
     const g = bandGrid(1, 200);
