@@ -18,6 +18,8 @@ export interface FormState {
 
 /** One wording for every password refusal, so it does not tell which addresses have accounts. */
 const BAD_CREDENTIALS = "That e-mail address and password do not match an account. Check both, or sign in with an e-mail link.";
+const TOO_MANY_ATTEMPTS =
+  "Too many password attempts for this address in the last quarter of an hour. Wait a while, or sign in with an e-mail link below.";
 const MAIL_NOT_SENT =
   "We could not send a link to that address just now. If you asked for several links in the last few minutes, wait a quarter of an hour and try again.";
 
@@ -55,7 +57,9 @@ export async function signInWithPassword(_prev: FormState, form: FormData): Prom
     });
   } catch (error) {
     unstable_rethrow(error); // a successful sign-in ends in a redirect, thrown
-    if (error instanceof AuthError && error.type === "CredentialsSignin") return { error: BAD_CREDENTIALS, values };
+    if (error instanceof AuthError && error.type === "CredentialsSignin") {
+      return { error: (error as AuthError & { code?: string }).code === "too_many_attempts" ? TOO_MANY_ATTEMPTS : BAD_CREDENTIALS, values };
+    }
     throw error;
   }
   return { error: BAD_CREDENTIALS, values };

@@ -38,3 +38,8 @@ export function takeRateToken(key: string, limit: number, windowMs: number, now 
     return { allowed: true, retryAfterMs: 0 };
   });
 }
+
+/** Forget every counted event for `key` (a successful password sign-in clears its failures). */
+export function clearRateTokens(key: string): void {
+  getDb().delete(rateLimitEvents).where(eq(rateLimitEvents.key, key)).run();
+}

@@ -1,11 +1,12 @@
 import "server-only";
 import { DrizzleAdapter } from "@auth/drizzle-adapter";
+import { CredentialsSignin } from "@auth/core/errors";
 import type { NextAuthConfig } from "next-auth";
 import Credentials from "next-auth/providers/credentials";
 import Nodemailer from "next-auth/providers/nodemailer";
 import { z } from "zod";
 import { getDb } from "@/db/connection";
-import { takeRateToken } from "@/db/queries/rate-limit";
+import { clearRateTokens, takeRateToken } from "@/db/queries/rate-limit";
 import { applyPendingSignup, ensurePersonalTeam, findUserByEmail, normalizeEmail } from "@/db/queries/users";
 import { accounts, sessions, users, verificationTokens } from "@/db/schema";
 import { env } from "@/lib/env";
@@ -20,6 +21,19 @@ const credentialsSchema = z.object({
   email: z.email().max(320),
   password: z.string().min(1).max(PASSWORD_MAX_LENGTH),
 });
+
+/**
+ * Password attempts per address (the address as typed, account or not, so the limit tells nothing
+ * about which addresses have accounts): PASSWORD_ATTEMPT_LIMIT attempts in the window without a
+ * success, then refused until the oldest leaves the window. A success clears the count.
+ */
+export const PASSWORD_ATTEMPT_LIMIT = 10;
+export const PASSWORD_ATTEMPT_WINDOW_MS = 15 * 60_000;
+
+/** Auth.js hands `code` back to the sign-in action, which shows its own wording for it. */
+export class PasswordAttemptsLimited extends CredentialsSignin {
+  code = "too_many_attempts";
+}
 
 /** Raised from the mail step when an address asked for too many links; shows as a sign-in mail error. */
 export class SignInMailLimited extends Error {
@@ -75,10 +89,13 @@ export function buildAuthConfig(): NextAuthConfig {
         async authorize(raw) {
           const parsed = credentialsSchema.safeParse(raw);
           if (!parsed.success) return null;
+          const attemptKey = `sign-in-password:${normalizeEmail(parsed.data.email)}`;
+          if (!takeRateToken(attemptKey, PASSWORD_ATTEMPT_LIMIT, PASSWORD_ATTEMPT_WINDOW_MS).allowed) throw new PasswordAttemptsLimited();
           const user = findUserByEmail(parsed.data.email);
           // verifyPassword hashes against a dummy when there is no user, to keep timing alike
           const ok = await verifyPassword(parsed.data.password, user?.passwordHash);
           if (!user || !ok) return null;
+          clearRateTokens(attemptKey);
           return { id: user.id, name: user.name, email: user.email };
         },
       }),

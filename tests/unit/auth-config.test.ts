@@ -3,7 +3,7 @@ import path from "node:path";
 import { findUserByEmail, savePendingSignup } from "@/db/queries/users";
 import { listUserTeams } from "@/db/queries/teams";
 import { Auth } from "@auth/core";
-import { buildAuthConfig, SignInMailLimited } from "@/lib/auth/config";
+import { buildAuthConfig, PASSWORD_ATTEMPT_LIMIT, PasswordAttemptsLimited, SignInMailLimited } from "@/lib/auth/config";
 import { hashPassword } from "@/lib/auth/password";
 import { resetEnvCache } from "@/lib/env";
 import { messagesFor } from "@/lib/mail/mailbox";
@@ -80,6 +80,24 @@ describe("password provider", () => {
     expect(await authorize({ email: "not an address", password: "x" })).toBeNull();
     expect(await authorize({ email: user.email, password: "x".repeat(500) })).toBeNull();
     expect(await authorize(null)).toBeNull();
+  });
+});
+
+describe("password attempts", () => {
+  it(`refuses an address after ${PASSWORD_ATTEMPT_LIMIT} failed attempts, even the right password, and a success clears the count`, async () => {
+    const authorize = provider("credentials").options.authorize as unknown as (c: unknown) => Promise<{ id: string } | null>;
+    const user = makeUser("guessed", await hashPassword("right password 1"));
+    const other = makeUser("bystander", await hashPassword("right password 2"));
+    for (let i = 0; i < PASSWORD_ATTEMPT_LIMIT - 1; i++) expect(await authorize({ email: user.email, password: `guess ${i}` })).toBeNull();
+    // a success before the limit resets the count …
+    expect(await authorize({ email: user.email, password: "right password 1" })).toMatchObject({ id: user.id });
+    for (let i = 0; i < PASSWORD_ATTEMPT_LIMIT; i++) expect(await authorize({ email: user.email, password: `guess ${i}` })).toBeNull();
+    // … but after the limit even the right password is refused, with the code the sign-in action words
+    await expect(authorize({ email: user.email!.toUpperCase(), password: "right password 1" })).rejects.toBeInstanceOf(PasswordAttemptsLimited);
+    // an unknown address is counted the same way (the limit does not reveal accounts), other addresses are untouched
+    for (let i = 0; i < PASSWORD_ATTEMPT_LIMIT; i++) expect(await authorize({ email: "nobody@test.example", password: "x" })).toBeNull();
+    await expect(authorize({ email: "nobody@test.example", password: "x" })).rejects.toBeInstanceOf(PasswordAttemptsLimited);
+    expect(await authorize({ email: other.email, password: "right password 2" })).toMatchObject({ id: other.id });
   });
 });
 
