@@ -8,6 +8,8 @@ export interface E2EContext {
   chromiumPath: string;
   mailboxPath: string;
   artifactsDir: string;
+  /** the server's AUTH_SECRET and database path (tests/e2e/build-budgets.e2e.ts looks for them in what browsers get) */
+  serverSecrets: string[];
 }
 
 declare module "vitest" {

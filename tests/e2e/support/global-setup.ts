@@ -13,7 +13,7 @@ const ARTIFACTS = path.resolve(__dirname, "../../../artifacts");
  * missing browser is a failure (CI must really run them).
  */
 export default async function setup(project: TestProject): Promise<(() => Promise<void>) | void> {
-  const blank: E2EContext = { skip: null, baseUrl: "", chromiumPath: CHROMIUM_PATH, mailboxPath: "", artifactsDir: ARTIFACTS };
+  const blank: E2EContext = { skip: null, baseUrl: "", chromiumPath: CHROMIUM_PATH, mailboxPath: "", artifactsDir: ARTIFACTS, serverSecrets: [] };
   if (!existsSync(CHROMIUM_PATH)) {
     if (process.env.CI) {
       throw new Error(`CI is set but ${CHROMIUM_PATH} is missing: install Debian's chromium (.ci/run does) so the browser tests run.`);
@@ -26,6 +26,6 @@ export default async function setup(project: TestProject): Promise<(() => Promis
   const started = Date.now();
   const server = await startE2EServer(ARTIFACTS);
   console.log(`[e2e] app built and started at ${server.baseUrl} in ${Math.round((Date.now() - started) / 1000)} s`);
-  project.provide("e2e", { ...blank, baseUrl: server.baseUrl, mailboxPath: server.mailboxPath });
+  project.provide("e2e", { ...blank, baseUrl: server.baseUrl, mailboxPath: server.mailboxPath, serverSecrets: server.serverSecrets });
   return () => server.stop();
 }

@@ -22,6 +22,8 @@ const ROOT = fileURLToPath(new URL("../../..", import.meta.url));
 export interface E2EServer {
   baseUrl: string;
   mailboxPath: string;
+  /** values only the server may know (its AUTH_SECRET, its database path), to check no page or script carries them */
+  serverSecrets: string[];
   stop(): Promise<void>;
 }
 
@@ -97,6 +99,7 @@ export async function startE2EServer(artifactsDir: string): Promise<E2EServer> {
   );
   await Promise.all([building, seeding]);
 
+  const authSecret = randomBytes(33).toString("base64url");
   let standin: MailStandin | undefined;
   let server: ChildProcess | undefined;
   const stop = async () => {
@@ -126,7 +129,7 @@ export async function startE2EServer(artifactsDir: string): Promise<E2EServer> {
         NODE_ENV: "production",
         NEXT_DIST_DIR: E2E_DIST_DIR,
         DATABASE_PATH: databasePath,
-        AUTH_SECRET: randomBytes(33).toString("base64url"),
+        AUTH_SECRET: authSecret,
         MAIL_STANDIN: "1",
         MAILBOX_PATH: mailboxPath,
         SMTP_HOST: "127.0.0.1",
@@ -140,5 +143,5 @@ export async function startE2EServer(artifactsDir: string): Promise<E2EServer> {
     await stop();
     throw err;
   }
-  return { baseUrl: `http://localhost:${httpPort}`, mailboxPath, stop };
+  return { baseUrl: `http://localhost:${httpPort}`, mailboxPath, serverSecrets: [authSecret, databasePath], stop };
 }
