@@ -90,7 +90,13 @@ export function readBuild(distDir: string): BuildReport {
     for (const files of Object.values(manifest.entryJSFiles ?? {})) for (const f of files) initial.add(f);
     const reachable = new Set(initial);
     const queue = [...initial];
-    while (queue.length) for (const next of refs.get(queue.pop()!) ?? []) if (!reachable.has(next)) (reachable.add(next), queue.push(next));
+    while (queue.length) {
+      for (const next of refs.get(queue.pop()!) ?? []) {
+        if (reachable.has(next)) continue;
+        reachable.add(next);
+        queue.push(next);
+      }
+    }
     const init = [...initial].filter((k) => chunkText.has(k)).sort();
     const lazy = [...reachable].filter((k) => !initial.has(k)).sort();
     pages.push({
