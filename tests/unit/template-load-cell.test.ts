@@ -61,7 +61,7 @@ describe("turbidity TIA template", () => {
     const v = validateChain(doc);
     if (!v.ok) throw new Error(JSON.stringify(v.errors));
     const r = analyzeChain(v.chain);
-    const tia = r.paths[0].stages.find((s) => s.id === "u1")! as { stability: { phaseMarginDeg: number } };
+    const tia = r.paths[0].stages.find((s) => s.id === "u1")! as unknown as { stability: { phaseMarginDeg: number } };
     expect(tia.stability.phaseMarginDeg).toBeGreaterThan(45);
     expect(r.warnings.some((w) => w.code === "tia-stability")).toBe(false);
     doc.nodes.find((n) => n.id === "u1")!.params.cf = 0;
