@@ -16,7 +16,11 @@ const CHECKS = [
   },
   {
     title: "Spread over part tolerances",
-    body: "Monte Carlo builds and worst-case corners over every resistor and capacitor, which part moves what, and standard values with a preview. Recorded waveforms run through the chain are not in this version yet.",
+    body: "Monte Carlo builds and worst-case corners over every resistor and capacitor, which part moves what, and standard values with a preview.",
+  },
+  {
+    title: "Steps and recordings",
+    body: "A step, burst or chirp, or a recording of the real sensor, run through every stage with each op-amp held to its rails and slew rate, so you see where a stage clips and how long it takes to recover.",
   },
 ];
 
