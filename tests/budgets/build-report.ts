@@ -118,10 +118,13 @@ export function readBuild(distDir: string): BuildReport {
  * Budget per page for the JavaScript loaded before the page runs, gzip-compressed kB (what travels).
  * Set a little above what the pages weigh now, so growth is a decision, not an accident. The workspace
  * gets the editor (React Flow, the forms, the direct SVG plots); the plotting library itself is lazy
- * and only the workspace may reach it.
+ * and only the chain pages that draw plots may reach it.
  */
 export const BUDGET_GZIP_KB: Array<{ match: RegExp; kb: number; plotly: boolean }> = [
-  { match: /^\/\(workspace\)\/chains\/\[id\]$/, kb: 380, plotly: true },
+  // the workspace and its read-only twin (/view renders the same editor with every edit off)
+  { match: /^\/\(workspace\)\/chains\/\[id\](\/view)?$/, kb: 380, plotly: true },
+  // the report renders its plots as images with the plotting library, and the outputs page offers it; both load it lazily
+  { match: /^\/\(workspace\)\/chains\/\[id\]\/(report|outputs)$/, kb: 230, plotly: true },
   { match: /.*/, kb: 230, plotly: false },
 ];
 

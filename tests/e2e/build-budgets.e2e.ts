@@ -1,8 +1,8 @@
 /**
  * Budgets on the production build the browser tests run against (.next-e2e), and accessibility of
  * every page. The JavaScript each page loads before it runs is measured from the build's manifests
- * (tests/budgets/build-report.ts) against a budget per page; the plotting library may be reachable from
- * the workspace only, and never up front. No client file and no served page carries a server secret.
+ * (tests/budgets/build-report.ts) against a budget per page; the plotting library may be reachable only from
+ * the chain pages that draw plots (workspace, its read-only view, report, outputs), and never up front. No client file and no served page carries a server secret.
  * axe-core runs in every page (landing, sign-in, sign-up, chain list, new chain, workspace, history,
  * parts, settings, teams, a team) and no serious or critical violation is allowed.
  */
@@ -56,11 +56,12 @@ describe.skipIf(ctx.skip !== null)("page budgets and secrets, read from the prod
     expect(over).toEqual([]);
   });
 
-  it("lets only the workspace reach the plotting library, and only lazily", () => {
+  it("lets only the chain pages that draw plots reach the plotting library, and only lazily", () => {
     expect(report.pages.filter((p) => p.plotlyInitial).map((p) => p.route)).toEqual([]);
     const reaching = report.pages.filter((p) => p.plotlyReachable).map((p) => p.route);
     expect(reaching).toEqual(report.pages.filter((p) => budgetFor(p.route).plotly).map((p) => p.route));
-    expect(reaching.length).toBe(1);
+    // the workspace itself must be among them, so the check is looking at a real import
+    expect(reaching).toContain("/(workspace)/chains/[id]");
   });
 
   it("has no server secret or server-only setting in any client file", () => {
