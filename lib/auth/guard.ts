@@ -1,4 +1,5 @@
 import "server-only";
+import { notFound, redirect } from "next/navigation";
 import type { User } from "@/db/schema";
 import {
   AccessError,
@@ -26,4 +27,19 @@ export async function requireChain(action: ChainAction, chainId: string): Promis
 export async function requireTeam(action: TeamAction, teamId: string): Promise<{ user: User; actions: Set<TeamAction> }> {
   const user = await requireUser();
   return { user, actions: assertTeam(user.id, action, teamId) };
+}
+
+/**
+ * For pages: the signed-in user and their rights on a chain. A signed-out visitor goes to sign-in and
+ * comes back to `path`; a chain they may not see, or may not do `action` to, is "not found", as in the API.
+ */
+export async function pageChain(action: ChainAction, chainId: string, path: string): Promise<ChainRights & { user: User }> {
+  const user = await getCurrentUser();
+  if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(path)}`);
+  try {
+    return { user, ...assertChain(user.id, action, chainId) };
+  } catch (e) {
+    if (e instanceof AccessError) notFound();
+    throw e;
+  }
 }

@@ -1,11 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
 import { HistoryView } from "@/components/history/history-view";
 import { ReviewBadge } from "@/components/review/review-badge";
 import { listRevisions } from "@/db/queries/history";
-import { AccessError, assertChain } from "@/lib/auth/permissions";
-import { getCurrentUser } from "@/lib/auth/session";
+import { pageChain } from "@/lib/auth/guard";
 
 export const metadata: Metadata = { title: "History" };
 
@@ -13,15 +11,7 @@ type Props = { params: Promise<{ id: string }> };
 
 export default async function HistoryPage({ params }: Props) {
   const { id } = await params;
-  const user = await getCurrentUser();
-  if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(`/chains/${id}/history`)}`);
-  let rights;
-  try {
-    rights = assertChain(user.id, "view", id);
-  } catch (e) {
-    if (e instanceof AccessError) notFound();
-    throw e;
-  }
+  const rights = await pageChain("view", id, `/chains/${id}/history`);
   const revisions = listRevisions(id).map((r) => ({ ...r, createdAt: r.createdAt.toISOString(), updatedAt: r.updatedAt?.toISOString() ?? null }));
   return (
     <div className="flex flex-col gap-5">

@@ -1,11 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
 import { BringUpTable } from "@/components/outputs/design-report";
 import { ValidationError } from "@/lib/api/errors";
 import { outputsOrReasons, readTestFrequencies } from "@/lib/api/outputs";
-import { AccessError, assertChain, type ChainRights } from "@/lib/auth/permissions";
-import { getCurrentUser } from "@/lib/auth/session";
+import { pageChain } from "@/lib/auth/guard";
 import { buildBringUpSheet, buildFirmwareScaling, defaultTestFrequencies, scalingHeader, type FirmwareScaling } from "@/lib/handoff";
 
 export const metadata: Metadata = { title: "Outputs" };
@@ -16,15 +14,7 @@ type Props = { params: Promise<{ id: string }>; searchParams: Promise<{ f?: stri
 export default async function OutputsPage({ params, searchParams }: Props) {
   const { id } = await params;
   const fText = (await searchParams).f ?? "";
-  const user = await getCurrentUser();
-  if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(`/chains/${id}/outputs`)}`);
-  let rights: ChainRights;
-  try {
-    rights = assertChain(user.id, "export", id);
-  } catch (e) {
-    if (e instanceof AccessError) notFound();
-    throw e;
-  }
+  const rights = await pageChain("export", id, `/chains/${id}/outputs`);
   const row = rights.chain;
   const made = outputsOrReasons(row);
   const api = `/api/chains/${id}`;

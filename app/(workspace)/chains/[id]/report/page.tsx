@@ -1,10 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
 import { listReviews } from "@/db/queries/reviews";
 import { outputsOrReasons } from "@/lib/api/outputs";
-import { AccessError, assertChain, type ChainRights } from "@/lib/auth/permissions";
-import { getCurrentUser } from "@/lib/auth/session";
+import { pageChain } from "@/lib/auth/guard";
 import { DesignReport, type ReviewLine } from "@/components/outputs/design-report";
 import { PrintButton } from "@/components/outputs/print-button";
 import "@/components/outputs/report.css";
@@ -19,15 +17,7 @@ const when = (d: Date | null) => (d ? d.toISOString().slice(0, 16).replace("T", 
 export default async function ReportPage({ params, searchParams }: Props) {
   const { id } = await params;
   const paper = (await searchParams).paper === "letter" ? "letter" : "a4";
-  const user = await getCurrentUser();
-  if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(`/chains/${id}/report`)}`);
-  let rights: ChainRights;
-  try {
-    rights = assertChain(user.id, "export", id);
-  } catch (e) {
-    if (e instanceof AccessError) notFound();
-    throw e;
-  }
+  const rights = await pageChain("export", id, `/chains/${id}/report`);
   const row = rights.chain;
   const made = outputsOrReasons(row);
   const reviews: ReviewLine[] = listReviews(id).map((r) => ({

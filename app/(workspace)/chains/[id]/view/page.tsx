@@ -1,10 +1,8 @@
 import type { Metadata } from "next";
-import { notFound, redirect } from "next/navigation";
 import { Workspace } from "@/components/editor/workspace";
 import { chainView } from "@/lib/api/chain-view";
 import type { ChainDto } from "@/lib/api/client/chains";
-import { AccessError, assertChain } from "@/lib/auth/permissions";
-import { getCurrentUser } from "@/lib/auth/session";
+import { pageChain } from "@/lib/auth/guard";
 
 export const metadata: Metadata = { title: "Chain (read-only)" };
 
@@ -16,16 +14,8 @@ type Props = { params: Promise<{ id: string }> };
  */
 export default async function ReadOnlyChainPage({ params }: Props) {
   const { id } = await params;
-  const user = await getCurrentUser();
-  if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(`/chains/${id}/view`)}`);
-  let chain: ChainDto;
-  try {
-    const rights = assertChain(user.id, "view", id);
-    chain = chainView(rights.chain, rights, true) as ChainDto;
-  } catch (e) {
-    if (e instanceof AccessError) notFound();
-    throw e;
-  }
+  const rights = await pageChain("view", id, `/chains/${id}/view`);
+  const chain = chainView(rights.chain, rights, true) as ChainDto;
   const readOnly: ChainDto = { ...chain, role: "viewer", actions: chain.actions.filter((a) => a === "view" || a === "export") };
   return <Workspace key={`${chain.id}-view`} chain={readOnly} />;
 }
