@@ -3,6 +3,7 @@ import { and, desc, eq, isNull, or, sql } from "drizzle-orm";
 import type { SQLiteUpdateSetSource } from "drizzle-orm/sqlite-core";
 import { getDb, type Db } from "../connection";
 import {
+  chainFiles,
   chainMembers,
   chains,
   revisions,
@@ -182,7 +183,15 @@ export function saveChainVersion(input: SaveChainInput): SaveChainOutcome {
   });
 }
 
-/** Delete a chain and (by cascade) its shares, revisions, comments and reviews. */
-export function deleteChainRow(id: string): boolean {
-  return getDb().delete(chains).where(eq(chains.id, id)).run().changes > 0;
+/**
+ * Delete a chain and (by cascade) its shares, revisions, comments, reviews and file rows. Returns the
+ * storage keys of the files it had (read in the same transaction, so none can slip in between), for the
+ * caller to remove their bytes; null when there was no such chain.
+ */
+export function deleteChainRow(id: string): { storageKeys: string[] } | null {
+  return getDb().transaction((tx) => {
+    const storageKeys = tx.select({ key: chainFiles.storageKey }).from(chainFiles).where(eq(chainFiles.chainId, id)).all().map((r) => r.key);
+    const gone = tx.delete(chains).where(eq(chains.id, id)).run().changes > 0;
+    return gone ? { storageKeys } : null;
+  });
 }

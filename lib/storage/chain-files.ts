@@ -1,6 +1,7 @@
 import "server-only";
 import { createHash, randomUUID } from "node:crypto";
 import { deleteChainFile, getChainFile, insertChainFile, listChainFiles } from "@/db/queries/chain-files";
+import { deleteChainRow } from "@/db/queries/chains";
 import type { ChainFile } from "@/db/schema";
 import { ApiError, ValidationError, type FieldError } from "@/lib/api/errors";
 import type { ChainFileKind } from "@/lib/domain";
@@ -122,4 +123,17 @@ export async function removeChainFile(chainId: string, id: string, store: FileSt
   const row = deleteChainFile(chainId, id);
   if (!row) throw new ApiError(404, "No such file on this chain.");
   await store.delete(row.storageKey);
+}
+
+/**
+ * Deletes a chain with everything it owns: the rows (one transaction, files' rows by cascade), then the
+ * bytes of each of its files. The rows go first, as in `removeChainFile`; should the process stop between
+ * the two, what remains is unreachable bytes, never a listed file without its contents. False when there
+ * was no such chain.
+ */
+export async function deleteChainWithFiles(chainId: string, store: FileStore = fileStore()): Promise<boolean> {
+  const gone = deleteChainRow(chainId);
+  if (!gone) return false;
+  for (const key of gone.storageKeys) await store.delete(key);
+  return true;
 }

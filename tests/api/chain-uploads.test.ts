@@ -1,7 +1,7 @@
 /**
  * Waveform and response uploads: every bad CSV refused with its line named and nothing stored (no row,
  * no file in the store), a viewer reads but cannot upload, a file over the limit gets 413, deletion
- * removes row and bytes.
+ * removes row and bytes, by an editor as well as the owner, and deleting the chain removes its files' bytes.
  */
 import { existsSync, readdirSync } from "node:fs";
 import path from "node:path";
@@ -12,6 +12,7 @@ vi.mock("@/lib/auth/session", () => sessionModule);
 
 import { GET as list, POST as upload } from "@/app/api/chains/[id]/uploads/route";
 import { DELETE as remove, GET as read } from "@/app/api/chains/[id]/uploads/[fileId]/route";
+import { DELETE as deleteChain } from "@/app/api/chains/[id]/route";
 import { insertChain } from "@/db/queries/chains";
 import { WAVEFORM_LIMITS } from "@/lib/waveform-csv";
 import { makeTeam, makeUser, share } from "../support/fixtures";
@@ -22,11 +23,16 @@ freshDatabasePerTest();
 function world() {
   const owner = makeUser("owner");
   const viewer = makeUser("viewer");
+  const editor = makeUser("editor");
+  const reviewer = makeUser("reviewer");
   const teamId = makeTeam("Keel", [[owner, "engineer"]]);
   const doc = { format: "chainwright.chain/1", name: "Channel A", nodes: [], edges: [] };
   const chainId = insertChain({ teamId, name: "Channel A", document: doc, userId: owner.id }).id;
   share(chainId, viewer, "viewer");
-  return { owner, viewer, chainId };
+  share(chainId, editor, "editor");
+  share(chainId, reviewer, "reviewer");
+  const otherChainId = insertChain({ teamId, name: "Channel B", document: { ...doc, name: "Channel B" }, userId: owner.id }).id;
+  return { owner, viewer, editor, reviewer, chainId, otherChainId };
 }
 
 const storedFiles = () => {
@@ -64,6 +70,43 @@ describe("uploads", () => {
     expect(storedFiles()).toHaveLength(0);
     expect((await read(jsonRequest("GET", "/x"), paramsContext({ id: w.chainId, fileId: file.id }))).status).toBe(404);
     expect((await remove(jsonRequest("DELETE", "/x"), paramsContext({ id: w.chainId, fileId: file.id }))).status).toBe(404);
+  });
+
+  it("lets an editor delete a file (row and bytes) and refuses a reviewer", async () => {
+    const w = world();
+    signInAs(w.owner);
+    const { file } = await (await post(w.chainId, { kind: "response", name: "bench.csv", csv: "10,0,-1\n100,-3,-45\n" })).json();
+    const at = paramsContext({ id: w.chainId, fileId: file.id });
+    signInAs(w.reviewer);
+    expect((await remove(jsonRequest("DELETE", "/x"), at)).status).toBe(403);
+    expect(storedFiles()).toHaveLength(1);
+    signInAs(w.editor);
+    expect((await remove(jsonRequest("DELETE", "/x"), at)).status).toBe(200);
+    expect(storedFiles()).toHaveLength(0);
+    expect((await (await list(jsonRequest("GET", "/x"), idContext(w.chainId))).json()).files).toEqual([]);
+  });
+
+  it("refuses to delete another chain's file through this chain", async () => {
+    const w = world();
+    signInAs(w.owner);
+    const { file } = await (await post(w.otherChainId, { kind: "waveform", name: "b.csv", csv: GOOD })).json();
+    expect((await remove(jsonRequest("DELETE", "/x"), paramsContext({ id: w.chainId, fileId: file.id }))).status).toBe(404);
+    expect(storedFiles()).toHaveLength(1);
+  });
+
+  it("deleting a chain removes its files' bytes and leaves another chain's alone", async () => {
+    const w = world();
+    signInAs(w.owner);
+    await post(w.chainId, { kind: "waveform", name: "a.csv", csv: GOOD });
+    await post(w.chainId, { kind: "response", name: "a-bench.csv", csv: "10,0,-1\n100,-3,-45\n" });
+    const { file: kept } = await (await post(w.otherChainId, { kind: "waveform", name: "b.csv", csv: GOOD })).json();
+    expect(storedFiles()).toHaveLength(3);
+    expect((await deleteChain(jsonRequest("DELETE", "/x"), idContext(w.chainId))).status).toBe(200);
+    const left = storedFiles();
+    expect(left).toHaveLength(1);
+    expect(left[0].name).toContain(kept.id);
+    const got = await read(jsonRequest("GET", "/x"), paramsContext({ id: w.otherChainId, fileId: kept.id }));
+    expect(await got.text()).toBe(GOOD);
   });
 
   it("stores a measured response", async () => {

@@ -1,12 +1,12 @@
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
-import { deleteChainRow } from "@/db/queries/chains";
 import { chainView } from "@/lib/api/chain-view";
 import { apiRoute } from "@/lib/api/handler";
 import { parseBody } from "@/lib/api/validate";
 import { requireChain } from "@/lib/auth/guard";
 import { assertChain, assertChainDelete } from "@/lib/auth/permissions";
 import { archiveChain, moveChainTo } from "@/lib/review/library";
+import { deleteChainWithFiles } from "@/lib/storage/chain-files";
 import { saveVersion } from "@/lib/history/save";
 
 type Context = { params: Promise<{ id: string }> };
@@ -43,13 +43,16 @@ export const PUT = apiRoute<Context>(async (request, { params }) => {
   });
 });
 
-/** DELETE /api/chains/:id: owners (and team admins) only; an approved chain only by an owner share. */
+/**
+ * DELETE /api/chains/:id: owners (and team admins) only; an approved chain only by an owner share. Its
+ * attached files go with it, bytes included.
+ */
 export const DELETE = apiRoute<Context>(async (_request, { params }) => {
   const { id } = await params;
   const { user, ...rights } = await requireChain("view", id);
   assertChainDelete(rights);
   const chain = rights.chain;
-  deleteChainRow(id);
+  await deleteChainWithFiles(id);
   recordAudit({ actorId: user.id, action: "chain.delete", targetType: "chain", targetId: id, teamId: chain.teamId, details: { name: chain.name } });
   return Response.json({ deleted: true, id });
 });
