@@ -24,6 +24,7 @@ import { ReviewBadge } from "@/components/review/review-badge";
 import { DECISION_WORDS, REVIEW_LOOK } from "@/components/review/review-words";
 import { ChainCards } from "./chain-cards";
 import { ReportPlots } from "./report-plots";
+import { ReportTable, td, tdText } from "./report-table";
 
 export interface ReviewLine {
   reviewer: string;
@@ -59,8 +60,6 @@ function Section({ title, children, id }: { title: string; children: ReactNode; 
   );
 }
 
-const th = "border-b border-paper-rule px-1.5 py-1 text-left font-medium text-graphite-700";
-const td = "num border-b border-paper-rule/60 px-1.5 py-0.5 align-top text-graphite-900";
 const v = (x: number | null | undefined) => (x === null || x === undefined ? "—" : fmtVolts(x));
 const deg = (x: number | null) => (x === null ? "—" : `${x.toFixed(1).replace("-", "−")}°`);
 
@@ -123,34 +122,23 @@ export function DesignReport(p: ReportProps) {
       </Section>
 
       <Section title="Headroom" id="r-headroom">
-        <table className="w-full border-collapse text-[11.5px]" data-testid="report-headroom">
-          <thead>
-            <tr>
-              {["Stage", "Status", "DC min", "DC max", "Peak min", "Peak max", "Usable", "Margin", "Slew needed"].map((h) => (
-                <th key={h} scope="col" className={th}>
-                  {h}
-                </th>
-              ))}
+        <ReportTable head={["Stage", "Status", "DC min", "DC max", "Peak min", "Peak max", "Usable", "Margin", "Slew needed"]} testId="report-headroom" wide>
+          {headroom.map((r) => (
+            <tr key={r.id} className="report-keep">
+              <td className={tdText}>{r.name}</td>
+              <td className={td}>
+                <StatusMark status={r.status} className="text-[11.5px]!" />
+              </td>
+              <td className={td}>{v(r.dcMin)}</td>
+              <td className={td}>{v(r.dcMax)}</td>
+              <td className={td}>{v(r.peakMin)}</td>
+              <td className={td}>{v(r.peakMax)}</td>
+              <td className={td}>{r.low === null ? "—" : `${v(r.low)} … ${v(r.high)}`}</td>
+              <td className={td}>{r.margin === null ? "—" : `${v(r.margin)} (${((r.share ?? 0) * 100).toFixed(0)} %)`}</td>
+              <td className={td}>{fmt(r.slew, "V/s")}</td>
             </tr>
-          </thead>
-          <tbody>
-            {headroom.map((r) => (
-              <tr key={r.id} className="report-keep">
-                <td className={`${td} font-sans`}>{r.name}</td>
-                <td className={td}>
-                  <StatusMark status={r.status} className="text-[11.5px]!" />
-                </td>
-                <td className={td}>{v(r.dcMin)}</td>
-                <td className={td}>{v(r.dcMax)}</td>
-                <td className={td}>{v(r.peakMin)}</td>
-                <td className={td}>{v(r.peakMax)}</td>
-                <td className={td}>{r.low === null ? "—" : `${v(r.low)} … ${v(r.high)}`}</td>
-                <td className={td}>{r.margin === null ? "—" : `${v(r.margin)} (${((r.share ?? 0) * 100).toFixed(0)} %)`}</td>
-                <td className={td}>{fmt(r.slew, "V/s")}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+          ))}
+        </ReportTable>
       </Section>
 
       <Section title="Noise budget" id="r-noise">
@@ -170,28 +158,17 @@ export function DesignReport(p: ReportProps) {
                   </>
                 )}
               </p>
-              <table className="mt-1 border-collapse text-[11.5px]">
-                <thead>
-                  <tr>
-                    {["Source of noise", "rms at the end", "Share"].map((h) => (
-                      <th key={h} scope="col" className={th}>
-                        {h}
-                      </th>
-                    ))}
+              <ReportTable head={["Source of noise", "rms at the end", "Share"]} className="mt-1">
+                {top.map((c) => (
+                  <tr key={`${c.nodeId}-${c.element}`}>
+                    <td className={tdText}>
+                      {names.get(c.nodeId) ?? c.nodeId} · {c.element}
+                    </td>
+                    <td className={td}>{fmt(c.rms, "volt")}</td>
+                    <td className={td}>{(c.share * 100).toFixed(1)} %</td>
                   </tr>
-                </thead>
-                <tbody>
-                  {top.map((c) => (
-                    <tr key={`${c.nodeId}-${c.element}`}>
-                      <td className={`${td} font-sans`}>
-                        {names.get(c.nodeId) ?? c.nodeId} · {c.element}
-                      </td>
-                      <td className={td}>{fmt(c.rms, "volt")}</td>
-                      <td className={td}>{(c.share * 100).toFixed(1)} %</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
+                ))}
+              </ReportTable>
             </div>
           );
         })}
@@ -212,39 +189,28 @@ export function DesignReport(p: ReportProps) {
       </Section>
 
       <Section title="Bill of materials" id="r-bom">
-        <table className="border-collapse text-[11.5px]">
-          <thead>
-            <tr>
-              {["Qty", "Designators", "Part", "Nearest standard", "Tolerance"].map((h) => (
-                <th key={h} scope="col" className={th}>
-                  {h}
-                </th>
-              ))}
+        <ReportTable head={["Qty", "Designators", "Part", "Nearest standard", "Tolerance"]}>
+          {bom.groups.map((g) => (
+            <tr key={`${g.type}-${g.value}-${g.tolerance}`}>
+              <td className={td}>{g.quantity}</td>
+              <td className={td}>{g.refs.join(", ")}</td>
+              <td className={td}>
+                {g.type} {formatQuantity(g.value, g.type === "resistor" ? "ohm" : "farad")}
+              </td>
+              <td className={td}>{formatQuantity(g.standard, g.type === "resistor" ? "ohm" : "farad")}</td>
+              <td className={td}>{(g.tolerance * 100).toPrecision(2)} %</td>
             </tr>
-          </thead>
-          <tbody>
-            {bom.groups.map((g) => (
-              <tr key={`${g.type}-${g.value}-${g.tolerance}`}>
-                <td className={td}>{g.quantity}</td>
-                <td className={td}>{g.refs.join(", ")}</td>
-                <td className={td}>
-                  {g.type} {formatQuantity(g.value, g.type === "resistor" ? "ohm" : "farad")}
-                </td>
-                <td className={td}>{formatQuantity(g.standard, g.type === "resistor" ? "ohm" : "farad")}</td>
-                <td className={td}>{(g.tolerance * 100).toPrecision(2)} %</td>
-              </tr>
-            ))}
-            {bom.opAmps.map((g) => (
-              <tr key={g.part ?? "ideal"}>
-                <td className={td}>{g.quantity}</td>
-                <td className={td}>{g.refs.join(", ")}</td>
-                <td className={td}>op-amp: {g.model}</td>
-                <td className={td}>—</td>
-                <td className={td}>—</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+          ))}
+          {bom.opAmps.map((g) => (
+            <tr key={g.part ?? "ideal"}>
+              <td className={td}>{g.quantity}</td>
+              <td className={td}>{g.refs.join(", ")}</td>
+              <td className={td}>op-amp: {g.model}</td>
+              <td className={td}>—</td>
+              <td className={td}>—</td>
+            </tr>
+          ))}
+        </ReportTable>
       </Section>
 
       <Section title="Bring-up" id="r-bringup">
@@ -282,33 +248,22 @@ export function DesignReport(p: ReportProps) {
         {p.reviews.length === 0 ? (
           <p>No review request is recorded for this chain; its review state reads {REVIEW_LOOK[p.reviewState]?.word.toLowerCase() ?? p.reviewState}.</p>
         ) : (
-          <table className="border-collapse text-[11.5px]" data-testid="report-reviews">
-            <thead>
-              <tr>
-                {["Reviewer", "Asked by", "Revision asked", "Decision", "On revision", "When", "Note"].map((h) => (
-                  <th key={h} scope="col" className={th}>
-                    {h}
-                  </th>
-                ))}
+          <ReportTable head={["Reviewer", "Asked by", "Revision asked", "Decision", "On revision", "When", "Note"]} testId="report-reviews">
+            {p.reviews.map((r, k) => (
+              <tr key={k}>
+                <td className={tdText}>{r.reviewer}</td>
+                <td className={tdText}>{r.requestedBy ?? "—"}</td>
+                <td className={td}>{r.askedRevision}</td>
+                <td className={tdText}>
+                  {DECISION_WORDS[r.decision] ?? r.decision}
+                  {r.closed ? ` (closed: ${r.closed})` : ""}
+                </td>
+                <td className={td}>{r.decidedRevision ?? "—"}</td>
+                <td className={td}>{r.decidedAt ?? "—"}</td>
+                <td className={tdText}>{r.note || "—"}</td>
               </tr>
-            </thead>
-            <tbody>
-              {p.reviews.map((r, k) => (
-                <tr key={k}>
-                  <td className={`${td} font-sans`}>{r.reviewer}</td>
-                  <td className={`${td} font-sans`}>{r.requestedBy ?? "—"}</td>
-                  <td className={td}>{r.askedRevision}</td>
-                  <td className={`${td} font-sans`}>
-                    {DECISION_WORDS[r.decision] ?? r.decision}
-                    {r.closed ? ` (closed: ${r.closed})` : ""}
-                  </td>
-                  <td className={td}>{r.decidedRevision ?? "—"}</td>
-                  <td className={td}>{r.decidedAt ?? "—"}</td>
-                  <td className={`${td} font-sans`}>{r.note || "—"}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+            ))}
+          </ReportTable>
         )}
       </Section>
 
@@ -321,45 +276,22 @@ export function DesignReport(p: ReportProps) {
 
 export function BringUpTable({ sheet }: { sheet: ReturnType<typeof buildBringUpSheet> }) {
   return (
-    <table className="border-collapse text-[11.5px]" data-testid="bring-up-table">
-      <thead>
-        <tr>
-          <th scope="col" className={th}>
-            Point
-          </th>
-          <th scope="col" className={th}>
-            Where
-          </th>
-          <th scope="col" className={th}>
-            DC nominal
-          </th>
-          <th scope="col" className={th}>
-            DC spread
-          </th>
-          {sheet.frequencies.map((f) => (
-            <th key={f} scope="col" className={th}>
-              at {formatQuantity(f, "hertz")}
-            </th>
+    <ReportTable head={["Point", "Where", "DC nominal", "DC spread", ...sheet.frequencies.map((f) => `at ${formatQuantity(f, "hertz")}`)]} testId="bring-up-table">
+      {sheet.points.map((tp) => (
+        <tr key={tp.tp} className="report-keep">
+          <td className={td}>{tp.tp}</td>
+          <td className={tdText}>{tp.where}</td>
+          <td className={td}>{v(tp.dcNominal)}</td>
+          <td className={td} title={tp.dcInterval ? `${tp.dcInterval.min} V to ${tp.dcInterval.max} V` : undefined}>
+            {tp.dcInterval ? `± ${v((tp.dcInterval.max - tp.dcInterval.min) / 2)}` : "unbounded"}
+          </td>
+          {tp.ac.map((a) => (
+            <td key={a.f} className={td}>
+              {a.amplitude === null ? "—" : `${fmtVolts(a.amplitude)} pk, ${deg(a.phaseDeg)}`}
+            </td>
           ))}
         </tr>
-      </thead>
-      <tbody>
-        {sheet.points.map((tp) => (
-          <tr key={tp.tp} className="report-keep">
-            <td className={td}>{tp.tp}</td>
-            <td className={`${td} font-sans`}>{tp.where}</td>
-            <td className={td}>{v(tp.dcNominal)}</td>
-            <td className={td} title={tp.dcInterval ? `${tp.dcInterval.min} V to ${tp.dcInterval.max} V` : undefined}>
-              {tp.dcInterval ? `± ${v((tp.dcInterval.max - tp.dcInterval.min) / 2)}` : "unbounded"}
-            </td>
-            {tp.ac.map((a) => (
-              <td key={a.f} className={td}>
-                {a.amplitude === null ? "—" : `${fmtVolts(a.amplitude)} pk, ${deg(a.phaseDeg)}`}
-              </td>
-            ))}
-          </tr>
-        ))}
-      </tbody>
-    </table>
+      ))}
+    </ReportTable>
   );
 }
