@@ -5,7 +5,6 @@
  * Row types are inferred from the tables at the bottom of this file.
  */
 import {
-  blob,
   index,
   integer,
   primaryKey,
@@ -243,7 +242,7 @@ export const reviews = sqliteTable(
 );
 
 // ---------------------------------------------------------------------------
-// Team library, uploads, invitations, audit
+// Team library, attached files, invitations, audit
 
 /** A team's op-amp model; `model` holds the JSON of a chain-format part (partSchema). */
 export const parts = sqliteTable(
@@ -261,26 +260,6 @@ export const parts = sqliteTable(
     updatedAt: integer("updated_at", { mode: "timestamp_ms" }).notNull().$defaultFn(now),
   },
   (t) => [uniqueIndex("parts_team_name_idx").on(t.teamId, t.name)],
-);
-
-/** Recorded waveforms (CSV) and other files a chain refers to. */
-export const uploads = sqliteTable(
-  "uploads",
-  {
-    id: text("id").primaryKey().$defaultFn(newId),
-    teamId: text("team_id")
-      .notNull()
-      .references(() => teams.id, { onDelete: "cascade" }),
-    chainId: text("chain_id").references(() => chains.id, { onDelete: "cascade" }),
-    fileName: text("file_name").notNull(),
-    contentType: text("content_type").notNull(),
-    size: integer("size").notNull(),
-    sha256: text("sha256").notNull(),
-    content: blob("content", { mode: "buffer" }).notNull(),
-    createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
-    createdAt: createdAt(),
-  },
-  (t) => [index("uploads_chain_idx").on(t.chainId)],
 );
 
 /**
@@ -370,7 +349,6 @@ export type Revision = typeof revisions.$inferSelect;
 export type Comment = typeof comments.$inferSelect;
 export type Review = typeof reviews.$inferSelect;
 export type PartRow = typeof parts.$inferSelect;
-export type Upload = typeof uploads.$inferSelect;
 export type ChainFile = typeof chainFiles.$inferSelect;
 export type Invitation = typeof invitations.$inferSelect;
 export type AuditEntry = typeof auditLog.$inferSelect;
