@@ -15,6 +15,7 @@ import {
   pathCurves,
   safetyCalls,
   signalOrder,
+  withSpread,
 } from "@/lib/handoff";
 import { formatQuantity } from "@/lib/units";
 import { fmt, fmtVolts } from "@/components/editor/format";
@@ -24,6 +25,7 @@ import { ReviewBadge } from "@/components/review/review-badge";
 import { DECISION_WORDS, REVIEW_LOOK } from "@/components/review/review-words";
 import { ChainCards } from "./chain-cards";
 import { ReportPlots } from "./report-plots";
+import { BringUpTable } from "./bring-up-table";
 import { ReportTable, td, tdText } from "./report-table";
 
 export interface ReviewLine {
@@ -61,7 +63,6 @@ function Section({ title, children, id }: { title: string; children: ReactNode; 
 }
 
 const v = (x: number | null | undefined) => (x === null || x === undefined ? "—" : fmtVolts(x));
-const deg = (x: number | null) => (x === null ? "—" : `${x.toFixed(1).replace("-", "−")}°`);
 
 export function DesignReport(p: ReportProps) {
   const { chain, result } = p;
@@ -70,7 +71,7 @@ export function DesignReport(p: ReportProps) {
   const adcById = Object.fromEntries(result.paths.flatMap((x) => (x.adc ? [[x.adc.id, x.adc]] : [])));
   const headroom = headroomRows(order, stageById, adcById);
   const bom = buildBom(chain);
-  const sheet = buildBringUpSheet(chain, result, defaultTestFrequencies(chain));
+  const sheet = withSpread(chain, buildBringUpSheet(chain, result, defaultTestFrequencies(chain)));
   const scalings = buildFirmwareScaling(chain, result);
   const cautions = safetyCalls(chain);
   const curves = pathCurves(chain, result);
@@ -271,27 +272,5 @@ export function DesignReport(p: ReportProps) {
         <SafetyCaution />
       </footer>
     </article>
-  );
-}
-
-export function BringUpTable({ sheet }: { sheet: ReturnType<typeof buildBringUpSheet> }) {
-  return (
-    <ReportTable head={["Point", "Where", "DC nominal", "DC spread", ...sheet.frequencies.map((f) => `at ${formatQuantity(f, "hertz")}`)]} testId="bring-up-table">
-      {sheet.points.map((tp) => (
-        <tr key={tp.tp} className="report-keep">
-          <td className={td}>{tp.tp}</td>
-          <td className={tdText}>{tp.where}</td>
-          <td className={td}>{v(tp.dcNominal)}</td>
-          <td className={td} title={tp.dcInterval ? `${tp.dcInterval.min} V to ${tp.dcInterval.max} V` : undefined}>
-            {tp.dcInterval ? `± ${v((tp.dcInterval.max - tp.dcInterval.min) / 2)}` : "unbounded"}
-          </td>
-          {tp.ac.map((a) => (
-            <td key={a.f} className={td}>
-              {a.amplitude === null ? "—" : `${fmtVolts(a.amplitude)} pk, ${deg(a.phaseDeg)}`}
-            </td>
-          ))}
-        </tr>
-      ))}
-    </ReportTable>
   );
 }

@@ -16,11 +16,14 @@ interface ReportTableProps {
   /** the full width of the page */
   wide?: boolean;
   className?: string;
+  /** said under the table (how its numbers were made) */
+  caption?: ReactNode;
 }
 
-export function ReportTable({ head, children, testId, wide = false, className = "" }: ReportTableProps) {
+export function ReportTable({ head, children, testId, wide = false, className = "", caption }: ReportTableProps) {
   return (
     <table className={`${wide ? "w-full " : ""}border-collapse text-[11.5px] ${className}`.trim()} data-testid={testId}>
+      {caption && <caption className="caption-bottom pt-1 text-left text-[11px] text-graphite-500">{caption}</caption>}
       <thead>
         <tr>
           {head.map((h, k) => (

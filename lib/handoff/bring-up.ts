@@ -4,12 +4,14 @@
  * tolerances of offsets, bias currents and the source's DC spread allow, from the engine's operating
  * point), and the AC amplitude and phase at test frequencies the user picks, for a sine of the source's
  * declared amplitude at that frequency (from the engine's sweep; phase relative to the source EMF).
- * Pure: no I/O.
+ * `withSpread` (bring-up-spread.ts) adds the spread of the same figures over builds within the part
+ * tolerances. Pure: no I/O.
  */
 import { isSourceKind } from "@/lib/chain/types";
 import { sourceSignal } from "@/lib/engine/sensors";
 import type { AnalysisResult, Chain, ChainNode, Interval, StageStatus } from "../chain/types";
 import { compileChain } from "../engine";
+import type { BringUpSpread } from "./bring-up-spread";
 import { gainPhase, isFeed, nodeTitle, signalOrder } from "./order";
 
 export interface TestPointAc {
@@ -44,6 +46,8 @@ export interface BringUpSheet {
   sourceId: string | null;
   frequencies: number[];
   points: TestPoint[];
+  /** the spread from tolerances at the same points and frequencies (`withSpread`), when it was run */
+  spread?: BringUpSpread;
 }
 
 /** Limits on the test frequencies a caller may ask for. */

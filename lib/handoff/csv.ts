@@ -49,12 +49,29 @@ export function bomGroupsCsv(bom: Bom): string {
   return toCsv(fields, rows);
 }
 
+/**
+ * One line per test point. With the sheet's spread: the DC reading over the builds (`spread_dc_*`: each
+ * build's interval joined), the range of the DC nominal, the AC amplitude's range per frequency, and the
+ * builds and seed on every line (so a line read alone still says where its range came from).
+ */
 export function bringUpCsv(sheet: BringUpSheet): string {
+  const { spread } = sheet;
   const fields = ["test_point", "node", "where", "dc_nominal_V", "dc_min_V", "dc_max_V", "status"];
   for (const f of sheet.frequencies) fields.push(`ac_peak_V_at_${f}_Hz`, `phase_deg_at_${f}_Hz`);
-  const rows = sheet.points.map((p) => {
+  if (spread) {
+    fields.push("spread_dc_min_V", "spread_dc_max_V", "spread_dc_nominal_min_V", "spread_dc_nominal_max_V");
+    for (const f of sheet.frequencies) fields.push(`spread_ac_peak_min_V_at_${f}_Hz`, `spread_ac_peak_max_V_at_${f}_Hz`);
+    fields.push("spread_builds", "spread_seed");
+  }
+  const rows = sheet.points.map((p, j) => {
     const row: Cell[] = [p.tp, p.nodeId, p.where, p.dcNominal, p.dcInterval?.min ?? null, p.dcInterval?.max ?? null, p.status ?? ""];
     for (const a of p.ac) row.push(a.amplitude, a.phaseDeg);
+    if (spread) {
+      const s = spread.points[j];
+      row.push(s.dcInterval?.min ?? null, s.dcInterval?.max ?? null, s.dcNominal?.min ?? null, s.dcNominal?.max ?? null);
+      for (const a of s.amplitude) row.push(a?.min ?? null, a?.max ?? null);
+      row.push(spread.trials, spread.seed);
+    }
     return row;
   });
   return toCsv(fields, rows);

@@ -8,8 +8,8 @@ export { buildBringUpSheet, defaultTestFrequencies, nominalOf, TEST_FREQUENCY_LI
 export type { BringUpSheet, TestPoint, TestPointAc } from "./bring-up";
 export { buildFirmwareScaling, codeOf, measurandOf, scalingHeader, sourceVoltsOf, SCALING_FORMAT } from "./firmware";
 export type { FirmwareScaling, ScalingResult } from "./firmware";
-export { bringUpSpread, BRING_UP_TRIALS } from "./bring-up-spread";
-export type { BringUpSpread, PointSpread } from "./bring-up-spread";
+export { bringUpSpread, withSpread, BRING_UP_SEED, BRING_UP_TRIALS } from "./bring-up-spread";
+export type { BringUpSpread, PointSpread, Range } from "./bring-up-spread";
 export { bomCsv, bomGroupsCsv, bringUpCsv, plotCsv, PLOT_TABLES, toCsv } from "./csv";
 export type { PlotTable } from "./csv";
 export { nodeTitle, signalOrder } from "./order";

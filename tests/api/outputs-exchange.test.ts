@@ -81,6 +81,13 @@ describe("hand-off downloads", () => {
     const { sheet } = await res.json();
     expect(sheet.frequencies).toEqual([2, 1000]);
     expect(sheet.points).toHaveLength(4);
+    // the spread rides along, seeded: the same request gives the same numbers
+    expect(sheet.spread).toMatchObject({ trials: 200, seed: 1, distribution: "uniform" });
+    expect(sheet.spread.points.map((p: { nodeId: string }) => p.nodeId)).toEqual(sheet.points.map((p: { nodeId: string }) => p.nodeId));
+    const again = await (await get(bringUpGet, w.hull, "?format=json&f=2,1k")).json();
+    expect(again.sheet.spread).toEqual(sheet.spread);
+    const csv = await (await get(bringUpGet, w.hull, "?f=2,1k")).text();
+    expect(csv.split("\r\n")[0]).toMatch(/,spread_dc_min_V,spread_dc_max_V,.*,spread_builds,spread_seed$/);
     const bad = await get(bringUpGet, w.hull, "?f=2,-5");
     expect(bad.status).toBe(400);
     expect((await bad.json()).errors).toEqual([expect.objectContaining({ path: "f[1]" })]);

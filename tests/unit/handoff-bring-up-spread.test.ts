@@ -3,9 +3,11 @@
  * worked by hand and come close to them, are reproducible from the seed, and collapse with zero tolerance.
  */
 import { describe, expect, it } from "vitest";
+import type { Chain } from "@/lib/chain/types";
 import { analyzeChain } from "@/lib/engine";
-import { buildBringUpSheet } from "@/lib/handoff/bring-up";
-import { bringUpSpread } from "@/lib/handoff/bring-up-spread";
+import { chainWithFactors, mulberry32, spreadParts } from "@/lib/engine/spread";
+import { buildBringUpSheet, defaultTestFrequencies } from "@/lib/handoff/bring-up";
+import { bringUpSpread, withSpread } from "@/lib/handoff/bring-up-spread";
 import { demo } from "./handoff-support";
 
 describe("bringUpSpread", () => {
@@ -55,5 +57,72 @@ describe("bringUpSpread", () => {
     expect(r.min).toBeGreaterThan(most - 1e-4);
     expect(r.max).toBeLessThan(least + 1e-4);
     expect(r.max - r.min).toBeGreaterThan(0.7 * (least - most));
+  });
+});
+
+/**
+ * The spread the sheet, its CSV and its table carry, replayed build by build through the engine's own
+ * entry points: the parts and draws of lib/engine/spread.ts (spreadParts, mulberry32, δ = t·(2u − 1) in
+ * part order, as its uniform draw), each build analysed whole by analyzeChain and put on a sheet by
+ * buildBringUpSheet, and the ranges joined here. Expectations come from the engine on whatever the demo
+ * chains are, not from pinned numbers.
+ */
+function replay(chain: Chain, frequencies: number[], trials: number, seed: number) {
+  const parts = spreadParts(chain);
+  const rng = mulberry32(seed);
+  const sheets = Array.from({ length: trials }, () => {
+    const factor = parts.map((p) => 1 + p.tolerance * (2 * rng() - 1));
+    const build = chainWithFactors(chain, parts, factor);
+    return buildBringUpSheet(build, analyzeChain(build), frequencies);
+  });
+  const join = (values: (number | null)[]) => (values.some((x) => x === null) ? null : { min: Math.min(...(values as number[])), max: Math.max(...(values as number[])) });
+  return sheets[0].points.map((tp, j) => ({
+    nodeId: tp.nodeId,
+    dcNominal: join(sheets.map((s) => s.points[j].dcNominal)),
+    dcInterval: sheets.some((s) => !s.points[j].dcInterval) ? null : join(sheets.flatMap((s) => [s.points[j].dcInterval!.min, s.points[j].dcInterval!.max])),
+    amplitude: frequencies.map((_, k) => join(sheets.map((s) => s.points[j].ac[k].amplitude))),
+  }));
+}
+
+const near = (a: { min: number; max: number } | null, b: { min: number; max: number } | null) => {
+  expect(a === null).toBe(b === null);
+  if (!a || !b) return;
+  const tol = 1e-9 * Math.max(1, Math.abs(b.min), Math.abs(b.max));
+  expect(Math.abs(a.min - b.min)).toBeLessThanOrEqual(tol);
+  expect(Math.abs(a.max - b.max)).toBeLessThanOrEqual(tol);
+};
+
+describe("withSpread: the sheet's spread against the engine, build by build", () => {
+  const TRIALS = 30;
+  for (const name of ["hull", "ballast", "turbidity"] as const) {
+    it(`${name}: DC nominal, DC reading and AC amplitude ranges equal the engine's builds joined`, () => {
+      const chain = demo()[name];
+      const freqs = defaultTestFrequencies(chain);
+      const sheet = withSpread(chain, buildBringUpSheet(chain, analyzeChain(chain), freqs), TRIALS, 5);
+      const spread = sheet.spread!;
+      expect(spread).toMatchObject({ trials: TRIALS, seed: 5, distribution: "uniform", parts: spreadParts(chain).length });
+      const expected = replay(chain, freqs, TRIALS, 5);
+      expect(spread.points.map((p) => p.nodeId)).toEqual(sheet.points.map((p) => p.nodeId));
+      spread.points.forEach((p, j) => {
+        near(p.dcNominal, expected[j].dcNominal);
+        near(p.dcInterval, expected[j].dcInterval);
+        p.amplitude.forEach((a, k) => near(a, expected[j].amplitude[k]));
+        // the joined reading holds every build's nominal, and the nominal sheet's own interval lies in it
+        if (p.dcInterval && p.dcNominal) {
+          expect(p.dcInterval.min).toBeLessThanOrEqual(p.dcNominal.min);
+          expect(p.dcInterval.max).toBeGreaterThanOrEqual(p.dcNominal.max);
+        }
+      });
+    });
+  }
+
+  it("states the chain's tolerances and counts the parts that have their own", () => {
+    const { turbidity } = demo();
+    const chain = structuredClone(turbidity);
+    const [first] = spreadParts(chain);
+    chain.tolerances = { resistor: 0.02, capacitor: 0.1, overrides: { [first.key]: 0.001 } };
+    const s = bringUpSpread(chain, buildBringUpSheet(chain, analyzeChain(chain), [10]), 5, 1);
+    expect(s.tolerances).toEqual({ resistor: 0.02, capacitor: 0.1, overrides: 1 });
+    expect(() => bringUpSpread(chain, buildBringUpSheet(chain, analyzeChain(chain), [10]), 0, 1)).toThrow(/trials/);
   });
 });

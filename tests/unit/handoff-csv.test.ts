@@ -5,7 +5,7 @@
 import Papa from "papaparse";
 import { describe, expect, it } from "vitest";
 import { analyzeChain } from "@/lib/engine";
-import { bomCsv, bomGroupsCsv, bringUpCsv, buildBom, buildBringUpSheet, plotCsv } from "@/lib/handoff";
+import { bomCsv, bomGroupsCsv, bringUpCsv, buildBom, buildBringUpSheet, plotCsv, withSpread } from "@/lib/handoff";
 import { demo } from "./handoff-support";
 
 const read = (csv: string) => Papa.parse<Record<string, string>>(csv.trim(), { header: true }).data;
@@ -41,6 +41,33 @@ describe("hand-off CSV", () => {
     expect(rows.map((r) => r.test_point)).toEqual(["TP1", "TP2", "TP3", "TP4"]);
     expect(Number(rows[3]["ac_peak_V_at_63_Hz"])).toBe(sheet.points[3].ac[1].amplitude);
     expect(Number(rows[1].dc_min_V)).toBe(sheet.points[1].dcInterval!.min);
+  });
+
+  it("bring-up sheet with its spread: the spread columns read back as the sheet's spread, with builds and seed on every line", () => {
+    const { turbidity } = demo();
+    const freqs = [5, 400];
+    const plain = buildBringUpSheet(turbidity, analyzeChain(turbidity), freqs);
+    const sheet = withSpread(turbidity, plain, 25, 9);
+    const rows = read(bringUpCsv(sheet));
+    const cell = (x: string) => (x === "" ? null : Number(x));
+    expect(rows).toHaveLength(sheet.points.length);
+    sheet.spread!.points.forEach((s, j) => {
+      const r = rows[j];
+      expect(r.node).toBe(s.nodeId);
+      expect(cell(r.spread_dc_min_V)).toBe(s.dcInterval?.min ?? null);
+      expect(cell(r.spread_dc_max_V)).toBe(s.dcInterval?.max ?? null);
+      expect(cell(r.spread_dc_nominal_min_V)).toBe(s.dcNominal?.min ?? null);
+      expect(cell(r.spread_dc_nominal_max_V)).toBe(s.dcNominal?.max ?? null);
+      freqs.forEach((f, k) => {
+        expect(cell(r[`spread_ac_peak_min_V_at_${f}_Hz`])).toBe(s.amplitude[k]?.min ?? null);
+        expect(cell(r[`spread_ac_peak_max_V_at_${f}_Hz`])).toBe(s.amplitude[k]?.max ?? null);
+      });
+      expect([r.spread_builds, r.spread_seed]).toEqual(["25", "9"]);
+    });
+    // the nominal columns are the sheet's whether or not the spread rides along
+    const without = read(bringUpCsv(plain));
+    expect(Object.keys(without[0]).some((k) => k.startsWith("spread_"))).toBe(false);
+    without.forEach((r, j) => expect(rows[j]).toMatchObject(r));
   });
 
   it("response data: the converter's columns equal the engine's path response on its grid", () => {

@@ -1,10 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { BringUpTable } from "@/components/outputs/design-report";
+import { BringUpTable } from "@/components/outputs/bring-up-table";
 import { ValidationError } from "@/lib/api/errors";
 import { outputsOrReasons, readTestFrequencies } from "@/lib/api/outputs";
 import { pageChain } from "@/lib/auth/guard";
-import { buildBringUpSheet, buildFirmwareScaling, defaultTestFrequencies, scalingHeader, type FirmwareScaling } from "@/lib/handoff";
+import { buildBringUpSheet, buildFirmwareScaling, defaultTestFrequencies, scalingHeader, withSpread, type FirmwareScaling } from "@/lib/handoff";
 
 export const metadata: Metadata = { title: "Outputs" };
 
@@ -104,7 +104,7 @@ export default async function OutputsPage({ params, searchParams }: Props) {
                 {freqProblem}; showing the default frequencies.
               </p>
             )}
-            <BringUpTable sheet={buildBringUpSheet(made.outputs.chain, made.outputs.result, freqs)} />
+            <BringUpTable sheet={withSpread(made.outputs.chain, buildBringUpSheet(made.outputs.chain, made.outputs.result, freqs))} />
           </section>
 
           <section aria-labelledby="o-fw" className="flex flex-col gap-2 text-sm">
