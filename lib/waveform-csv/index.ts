@@ -226,3 +226,20 @@ export function tracesCsv(sampleRate: number, start: number, columns: { name: st
   }
   return `${out.join("\n")}\n`;
 }
+
+/** The columns of `responseDifferenceCsv`, in order. */
+export const DIFFERENCE_COLUMNS = ["frequency_Hz", "measured_dB", "measured_deg", "computed_dB", "computed_deg", "difference_dB", "difference_deg"] as const;
+
+/**
+ * A measured response against the computed one as CSV: one row per measured frequency with both
+ * responses and measured − computed (lib/engine/measured-response); a value the comparison could not
+ * give (outside the computed grid) is left empty. Full precision.
+ */
+export function responseDifferenceCsv(d: { f: ArrayLike<number>; measuredDb: ArrayLike<number>; measuredDeg: ArrayLike<number>; computedDb: ArrayLike<number>; computedDeg: ArrayLike<number>; diffDb: ArrayLike<number>; diffDeg: ArrayLike<number> }): string {
+  const cell = (v: number) => (Number.isFinite(v) ? String(v) : "");
+  const out: string[] = [DIFFERENCE_COLUMNS.join(",")];
+  for (let k = 0; k < d.f.length; k++) {
+    out.push([d.f[k], d.measuredDb[k], d.measuredDeg[k], d.computedDb[k], d.computedDeg[k], d.diffDb[k], d.diffDeg[k]].map(cell).join(","));
+  }
+  return `${out.join("\n")}\n`;
+}

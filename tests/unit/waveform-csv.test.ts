@@ -1,7 +1,8 @@
 /** Reading waveform and response CSV: every refusal names its line and column; good files read exactly. */
 import { describe, expect, it } from "vitest";
 import { parseAnalyzeArgs } from "@/lib/chain/analyze-cli";
-import { problemText, readResponseCsv, readWaveformCsv, tracesCsv } from "@/lib/waveform-csv";
+import { compareResponses } from "@/lib/engine/measured-response";
+import { DIFFERENCE_COLUMNS, problemText, readResponseCsv, readWaveformCsv, responseDifferenceCsv, tracesCsv } from "@/lib/waveform-csv";
 
 const rows = (n: number, fs = 1000, f = (i: number) => Math.sin(i / 10)) => Array.from({ length: n }, (_, i) => `${i / fs},${f(i)}`).join("\n");
 
@@ -99,5 +100,21 @@ describe("stage outputs as CSV and the --waveform arguments", () => {
     expect(r.ok || r.errors.map((e) => e.path)).toEqual(["--out"]);
     const t = parseAnalyzeArgs(["c.json", "--waveform", "d.csv", "--trials", "5"]);
     expect(t.ok || t.errors.map((e) => e.path)).toEqual(["--trials"]);
+  });
+});
+
+describe("responseDifferenceCsv", () => {
+  it("writes both responses and the difference per measured frequency, blank where there is none, and reads back", () => {
+    // computed: a flat −6 dB, −90° over 10 Hz … 10 kHz; measured 1 dB above it, one point outside the grid
+    const computed = { f: [10, 100, 1000, 10000], db: [-6, -6, -6, -6], ph: [-90, -90, -90, -90] };
+    const measured = readResponseCsv("frequency,magnitude,phase\n31.6,-5,-88\n1000,-5,-95\n20000,-5,-90\n");
+    if (!measured.ok) throw new Error("fixture");
+    const d = compareResponses({ f: measured.data.freqs, db: measured.data.magDb, ph: measured.data.phaseDeg }, computed);
+    const csv = responseDifferenceCsv(d);
+    const lines = csv.trim().split("\n");
+    expect(lines[0]).toBe(DIFFERENCE_COLUMNS.join(","));
+    expect(lines[1].split(",").map(Number)).toEqual([31.6, -5, -88, -6, -90, 1, 2]);
+    expect(lines[2].split(",").map(Number)).toEqual([1000, -5, -95, -6, -90, 1, -5]);
+    expect(lines[3]).toBe("20000,-5,-90,,,,");
   });
 });
