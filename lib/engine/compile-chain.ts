@@ -333,15 +333,16 @@ class FastChain implements CompiledChain {
     if (first) this.sources.push({ key: `${this.nodeIds[0]}:emf`, node: 0, nodeId: this.nodeIds[0], element: "emf", type: "emf" });
     if (chain.nodes.length !== this.n || chain.edges.length !== this.n - 1)
       throw new Error("retune: the chain has other nodes or edges than the compiled one");
+    const ordered = new Array<ChainNode>(this.n);
     for (const node of chain.nodes) {
       const i = nodes.get(node.id);
-      if (i === undefined || this.kinds[i] !== node.kind) throw new Error(`retune: node ${node.id} differs from the compiled chain`);
+      if (i === undefined || this.kinds[i] !== node.kind || ordered[i]) throw new Error(`retune: node ${node.id} differs from the compiled chain`);
+      ordered[i] = node;
     }
     for (const e of chain.edges) {
       if (this.parent[nodes.get(e.to) ?? -1] !== nodes.get(e.from))
         throw new Error(`retune: edge ${e.from} → ${e.to} is not in the compiled chain`);
     }
-    const ordered = this.nodeIds.map((id) => chain.nodes.find((x) => x.id === id)!);
     ordered.forEach((node, i) => {
       if (first) this.srcBase[i] = this.sources.length;
       const addSource = (s: Omit<TransferSource, "key" | "node" | "nodeId">) => {
@@ -392,17 +393,30 @@ class FastChain implements CompiledChain {
           });
           this.limH[i] = limitAtZero(model.vin.vo, model.den);
           this.limY[i] = limitAtZero(model.vin.iin, model.den);
-          const list = [model.vin.p, ...model.sources.flatMap((x) => [x.vo, x.iin, x.p])];
-          const off = new Int32Array(2 * list.length);
-          const coef = new Float64Array(list.reduce((t, x) => t + x.length, 0));
+          // V+/Vin, then vo, iin, p of each source, flat; a retune refills the arrays when the sizes allow
+          const count = 1 + 3 * model.sources.length;
+          const polyAt = (j: number) => {
+            if (j === 0) return model.vin.p;
+            const x = model.sources[((j - 1) / 3) | 0];
+            return (j - 1) % 3 === 0 ? x.vo : (j - 1) % 3 === 1 ? x.iin : x.p;
+          };
+          let size = 0;
+          for (let j = 0; j < count; j++) size += polyAt(j).length;
+          const old = this.stagePolys[i];
+          const fits = old !== null && old.coef.length === size && old.lim.length === count;
+          const coef = fits ? old.coef : new Float64Array(size);
+          const off = fits ? old.off : new Int32Array(2 * count);
+          const lim = fits ? old.lim : new Float64Array(count);
           let at = 0;
-          list.forEach((x, j) => {
+          for (let j = 0; j < count; j++) {
+            const x = polyAt(j);
             coef.set(x, at);
             off[2 * j] = at;
             at += x.length;
             off[2 * j + 1] = at;
-          });
-          this.stagePolys[i] = { den: model.den, coef, off, lim: Float64Array.from(list, (x) => limitAtZero(x, model.den)) };
+            lim[j] = limitAtZero(x, model.den);
+          }
+          this.stagePolys[i] = { den: model.den, coef, off, lim };
           q++;
         }
       }

@@ -89,44 +89,65 @@ export function dcValue(chain: Chain, s: TransferSource): { value: number; symme
   }
 }
 
-function pointFrom(chain: Chain, cc: CompiledChain, re: Float64Array): DcPoint {
+/** What every transfer source carries at DC (index as `cc.sources`), read from the chain once per evaluation. */
+export interface DcTable {
+  source: { id: string; dc: number; dcSpread: number };
+  /** per transfer source: its dcValue (null for the EMF and for sources that carry nothing) */
+  values: (ReturnType<typeof dcValue> | null)[];
+}
+
+export function dcTable(chain: Chain, cc: CompiledChain): DcTable {
   const src = chainSource(chain);
-  const srcParams = sourceSignal(src);
-  const driftFrom: string[] = [];
-  let finite = true;
+  const sig = sourceSignal(src);
+  return { source: { id: src.id, dc: sig.dc, dcSpread: sig.dcSpread }, values: cc.sources.map((s) => dcValue(chain, s)) };
+}
+
+/**
+ * The DC interval at a point from the transfers `re` of every source to it (null when unbounded: an
+ * integrator drifts into it, or a transfer is not finite). With `terms`, also lists the terms that make it
+ * up (in the order they are summed). `driftFrom`, when given, receives the integrators that drift into it.
+ */
+export function dcInterval(table: DcTable, cc: CompiledChain, re: Float64Array, terms?: DcTerm[], driftFrom?: string[]): Interval | null {
+  let unbounded = false;
   for (let k = 0; k < cc.sources.length; k++) {
-    const s = cc.sources[k];
-    if (s.type === "drift" && re[k] !== 0) driftFrom.push(s.nodeId);
-    if (!Number.isFinite(re[k])) finite = false;
+    if (cc.sources[k].type === "drift" && re[k] !== 0) {
+      unbounded = true;
+      driftFrom?.push(cc.sources[k].nodeId);
+    }
+    if (!Number.isFinite(re[k])) unbounded = true;
   }
-  if (driftFrom.length || !finite) return { interval: null, terms: [], gainFromEmf: null, driftFrom };
-  const terms: DcTerm[] = [];
+  if (unbounded) return null;
+  // fixed terms add to the middle, ± terms to the half-width, each in source order
+  let mid = 0;
+  let half = 0;
   const g = re[0];
-  if (srcParams) {
-    if (srcParams.dc !== 0 && g !== 0)
-      terms.push({ cause: "source-dc", nodeId: src!.id, what: "source DC", value: g * srcParams.dc, symmetric: false });
-    if (srcParams.dcSpread !== 0 && g !== 0)
-      terms.push({ cause: "source-dc", nodeId: src!.id, what: "source DC spread", value: Math.abs(g) * srcParams.dcSpread, symmetric: true });
+  const { id, dc, dcSpread } = table.source;
+  if (dc !== 0 && g !== 0) {
+    mid += g * dc;
+    terms?.push({ cause: "source-dc", nodeId: id, what: "source DC", value: g * dc, symmetric: false });
+  }
+  if (dcSpread !== 0 && g !== 0) {
+    half += Math.abs(g) * dcSpread;
+    terms?.push({ cause: "source-dc", nodeId: id, what: "source DC spread", value: Math.abs(g) * dcSpread, symmetric: true });
   }
   for (let k = 1; k < cc.sources.length; k++) {
     if (re[k] === 0) continue;
-    const v = dcValue(chain, cc.sources[k]);
+    const v = table.values[k];
     if (!v) continue;
-    terms.push({
-      cause: v.cause,
-      nodeId: cc.sources[k].nodeId,
-      what: v.what,
-      value: v.symmetric ? Math.abs(re[k]) * v.value : re[k] * v.value,
-      symmetric: v.symmetric,
-    });
+    const value = v.symmetric ? Math.abs(re[k]) * v.value : re[k] * v.value;
+    if (v.symmetric) half += value;
+    else mid += value;
+    terms?.push({ cause: v.cause, nodeId: cc.sources[k].nodeId, what: v.what, value, symmetric: v.symmetric });
   }
-  let mid = 0;
-  let half = 0;
-  for (const t of terms) {
-    if (t.symmetric) half += t.value;
-    else mid += t.value;
-  }
-  return { interval: { min: mid - half, max: mid + half }, terms, gainFromEmf: g, driftFrom };
+  return { min: mid - half, max: mid + half };
+}
+
+function pointFrom(table: DcTable, cc: CompiledChain, re: Float64Array): DcPoint {
+  const terms: DcTerm[] = [];
+  const driftFrom: string[] = [];
+  const interval = dcInterval(table, cc, re, terms, driftFrom);
+  if (!interval) return { interval: null, terms: [], gainFromEmf: null, driftFrom };
+  return { interval, terms, gainFromEmf: re[0], driftFrom };
 }
 
 /** DC intervals of every node output and (+) pin, and every stage's own DC gain. */
@@ -138,13 +159,14 @@ export function operatingPoint(chain: Chain, cc: CompiledChain): OperatingPoint 
   const out: DcPoint[] = [];
   const plus: (DcPoint | null)[] = [];
   const stageGain: (number | null)[] = [];
+  const table = dcTable(chain, cc);
   for (let i = 0; i < n; i++) {
     cc.transfersTo(i, false, re, im);
-    out.push(pointFrom(chain, cc, re));
+    out.push(pointFrom(table, cc, re));
     const model = cc.models[i];
     if (model) {
       cc.transfersTo(i, true, re, im);
-      plus.push(pointFrom(chain, cc, re));
+      plus.push(pointFrom(table, cc, re));
     } else plus.push(null);
     const kind = cc.kinds[i];
     const h = cc.stageAt(i).hRe;

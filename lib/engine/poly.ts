@@ -97,7 +97,7 @@ export function ratioAt(num: Poly, den: Poly, w: number): [number, number] {
 }
 
 /** |num(jω)/den(jω)|, as ratioAt without the array (for per-point loops). */
-export function ratioMagAt(num: Poly, den: Poly, w: number): number {
+export function ratioMagAt(num: Poly, den: Poly, w: number, abs: (re: number, im: number) => number = Math.hypot): number {
   if (w === 0) return Math.abs(limitAtZero(num, den));
   let nr = num[num.length - 1];
   let ni = 0;
@@ -113,5 +113,14 @@ export function ratioMagAt(num: Poly, den: Poly, w: number): number {
     di = dr * w;
     dr = r;
   }
-  return Math.hypot(nr, ni) / Math.hypot(dr, di);
+  return abs(nr, ni) / abs(dr, di);
+}
+
+/**
+ * |re + j·im| as √(re² + im²), an order of magnitude faster than Math.hypot; Math.hypot only where the
+ * squares would overflow or lose precision to underflow. Agrees with Math.hypot to about one rounding.
+ */
+export function magnitude(re: number, im: number): number {
+  const p = re * re + im * im;
+  return p > 1e-290 && p < 1e290 ? Math.sqrt(p) : Math.hypot(re, im);
 }

@@ -16,8 +16,8 @@
  * Per build (`evaluate`): the response at each path's end (dB) on the plot grid, and per node its DC gain
  * (as analyzeChain's dcGain), ideal f0 and Q, and worst margin: the smallest of the output's distance to
  * its usable range and the (+) input's to its allowed range, both low and high (V; an ADC: its input to
- * [vinLow, vinHigh]). The margins use analyzeChain's own operating point and band peaks (bandFigures),
- * with the peak search stopped at 1e-6 in ln f instead of 1e-10 (the peak value then agrees to ~1e-12).
+ * [vinLow, vinHigh]). The margins are analyzeChain's operating point and band peaks, evaluated leaner
+ * (BuildFigures: Brent's method to 1e-6 in ln f on analyzeChain's band grid; the values agree to ~1e-12).
  * A build clips when some margin is negative or a level is unbounded (an integrator, a pole in band).
  *
  * Envelopes: min and max exactly; the 5 % and 95 % points per frequency by the P² estimator (Jain and
@@ -34,10 +34,10 @@ import { isSourceKind } from "../chain/types";
 import { sourceSignal } from "./sensors";
 import { PARAM_SPECS } from "../chain/params";
 import type { Chain, ChainNode, Part } from "../chain/types";
-import { bandFigures } from "./analyze";
 import { compileChain, type CompiledChain, type SweepResult } from "./compile-chain";
-import { operatingPoint } from "./dc";
-import { logGrid } from "./grids";
+import { dcInterval, dcTable, dcValue, type DcTable } from "./dc";
+import { bandGrid, bandMaxMany, logGrid } from "./grids";
+import { magnitude, ratioMagAt } from "./poly";
 import { idealCharacteristics } from "./ideal";
 import { isOpAmpKind } from "./topology";
 
@@ -331,66 +331,200 @@ function partOf(chain: Chain, node: ChainNode): Part | undefined {
 
 const num = (x: number | null | undefined) => (x === null || x === undefined || !Number.isFinite(x) ? NaN : x);
 
-/**
- * Evaluates one build already loaded into `cc` (cc.chain). `order[i]` is the index in the chain's node
- * list of topology node i (the builds keep the base chain's order).
- */
-function figuresOf(cc: CompiledChain, order: Int32Array, headroom: Uint8Array): Figures {
-  const chain = cc.chain;
-  const nodes = Array.from(order, (k) => chain.nodes[k]);
-  const n = nodes.length;
-  const src = nodes[0];
-  const f: Figures = {
-    dcGain: new Float64Array(n).fill(NaN),
-    f0: new Float64Array(n).fill(NaN),
-    q: new Float64Array(n).fill(NaN),
-    margin: new Float64Array(n).fill(NaN),
+function newFigures(n: number): Figures {
+  return {
+    dcGain: new Float64Array(n),
+    f0: new Float64Array(n),
+    q: new Float64Array(n),
+    margin: new Float64Array(n),
     clip: new Uint8Array(n),
   };
-  if (!isSourceKind(src.kind)) throw new Error("chain must start at its source");
-  const sig = sourceSignal(src);
-  const amp = sig.amplitude;
-  const op = operatingPoint(chain, cc);
-  const band = bandFigures(cc, sig.fLow, sig.fHigh, PEAK_TOL, headroom);
-  for (let i = 1; i < n; i++) {
-    const node = nodes[i];
-    f.dcGain[i] = num(op.stageGain[i]);
-    const ideal = idealCharacteristics(node);
-    f.f0[i] = num(ideal.f0);
-    f.q[i] = num(ideal.q);
-    const dc = op.out[i].interval;
-    const gain = band[i].gain;
-    const acPeak = gain === null ? null : amp * gain;
-    if (node.kind === "adc") {
-      if (!dc || acPeak === null) f.clip[i] = 1;
-      else {
-        const m = Math.min(dc.min - acPeak - node.params.vinLow, node.params.vinHigh - (dc.max + acPeak));
-        f.margin[i] = m;
-        if (m < 0) f.clip[i] = 1;
+}
+
+/**
+ * The figures of a build, set up once per run and evaluated for each build loaded into `cc` (`retune`).
+ * The same numbers as analyzeChain's operating point and band peaks (bandFigures), computed leaner:
+ * - what does not vary between builds is read once: the source's signal, each stage's usable and
+ *   allowed ranges, the DC value every transfer source carries (only a common-mode error depends on
+ *   resistor values, and is read again per build), the band grid and the searches over it;
+ * - the DC intervals without their term lists (`dcInterval`, the same sums in the same order);
+ * - magnitudes by √(re² + im²) instead of Math.hypot (`magnitude`, within about one rounding);
+ * - the band peaks on analyzeChain's own grid (so the same sample is the best one), refined by Brent's
+ *   method instead of golden section (`bandMaxMany(…, "brent")`), stopped at PEAK_TOL in ln f; its value
+ *   agrees with analyzeChain's 1e-10 golden search to ~1e-12 relative at a smooth peak
+ *   (tests/reference/spread-peaks.test.ts holds the margins of several chains to it);
+ * - sweep buffers and value arrays kept from build to build.
+ * `order[i]` is the index in the chain's node list of topology node i (the builds keep the base's order).
+ */
+class BuildFigures {
+  private readonly n: number;
+  private readonly amp: number;
+  private readonly grid: Float64Array;
+  /** per search: its node, and whether it is the (+) pin's peak (else the node's output) */
+  private readonly searchNode: Int32Array;
+  private readonly searchPlus: Uint8Array;
+  private readonly searches: { grid: Float64Array; values: Float64Array }[];
+  private readonly table: DcTable;
+  private readonly cmError: number[];
+  private readonly re: Float64Array;
+  private readonly im: Float64Array;
+  /** per node: usable output range and allowed (+) range (op-amp stages), or the ADC's input window */
+  private readonly outLow: Float64Array;
+  private readonly outHigh: Float64Array;
+  private readonly inLow: Float64Array;
+  private readonly inHigh: Float64Array;
+  private readonly gain: Float64Array;
+  private readonly plusGain: Float64Array;
+  private bandSweep: SweepResult | undefined;
+  private readonly stepSweeps: (SweepResult | undefined)[] = [];
+
+  constructor(
+    private readonly cc: CompiledChain,
+    private readonly order: Int32Array,
+  ) {
+    const chain = cc.chain;
+    const nodes = cc.topology.nodes;
+    const n = nodes.length;
+    this.n = n;
+    const src = nodes[0];
+    if (!isSourceKind(src.kind)) throw new Error("chain must start at its source");
+    const sig = sourceSignal(src);
+    this.amp = sig.amplitude;
+    this.grid = bandGrid(sig.fLow, sig.fHigh);
+    const node: number[] = [];
+    const plus: number[] = [];
+    this.outLow = new Float64Array(n).fill(NaN);
+    this.outHigh = new Float64Array(n).fill(NaN);
+    this.inLow = new Float64Array(n).fill(NaN);
+    this.inHigh = new Float64Array(n).fill(NaN);
+    nodes.forEach((x, i) => {
+      if (x.kind === "adc") {
+        this.outLow[i] = x.params.vinLow;
+        this.outHigh[i] = x.params.vinHigh;
+      } else if (isOpAmpKind(x.kind)) {
+        const st = x as Extract<ChainNode, { rails: unknown }>;
+        const part = partOf(chain, x);
+        this.outLow[i] = st.rails.low + (part?.swingLow ?? 0);
+        this.outHigh[i] = st.rails.high - (part?.swingHigh ?? 0);
+        this.inLow[i] = st.rails.low + (part?.inputLow ?? 0);
+        this.inHigh[i] = st.rails.high - (part?.inputHigh ?? 0);
+      } else return;
+      // the band peaks the margins need: the output of op-amp stages and converters, the (+) pin of stages
+      node.push(i);
+      plus.push(0);
+      // a (+) pin tied to vref has no signal (V+/Vin = 0): its peak is 0 without a search
+      if (cc.models[i]?.vin.p.some((c) => c !== 0)) {
+        node.push(i);
+        plus.push(1);
       }
-      continue;
-    }
-    if (!isOpAmpKind(node.kind)) continue;
-    if (node.kind === "integrator") f.clip[i] = 1;
-    const st = node as Extract<ChainNode, { rails: unknown }>;
-    const part = partOf(chain, node);
-    const plus = op.plus[i]?.interval ?? null;
-    const plusGain = band[i].plusGain;
-    const plusAc = plusGain === null ? null : amp * plusGain;
-    if (!dc || acPeak === null || !plus || plusAc === null) {
-      f.clip[i] = 1;
-      continue;
-    }
-    const m = Math.min(
-      dc.min - acPeak - (st.rails.low + (part?.swingLow ?? 0)),
-      st.rails.high - (part?.swingHigh ?? 0) - (dc.max + acPeak),
-      plus.min - plusAc - (st.rails.low + (part?.inputLow ?? 0)),
-      st.rails.high - (part?.inputHigh ?? 0) - (plus.max + plusAc),
-    );
-    f.margin[i] = m;
-    if (m < 0) f.clip[i] = 1;
+    });
+    this.searchNode = Int32Array.from(node);
+    this.searchPlus = Uint8Array.from(plus);
+    this.searches = node.map(() => ({ grid: this.grid, values: new Float64Array(this.grid.length) }));
+    this.table = dcTable(chain, cc);
+    this.cmError = cc.sources.flatMap((x, k) => (x.type === "cm-error" ? [k] : []));
+    this.re = new Float64Array(cc.sources.length);
+    this.im = new Float64Array(cc.sources.length);
+    this.gain = new Float64Array(n);
+    this.plusGain = new Float64Array(n);
   }
-  return f;
+
+  /** |V+/Vin| of op-amp stage i at ω (rad/s) */
+  private plusRatio(i: number, w: number): number {
+    const model = this.cc.models[i]!;
+    return ratioMagAt(model.vin.p, model.den, w, magnitude);
+  }
+
+  /** Band peaks of the loaded build into `gain` and `plusGain` (NaN where not finite). */
+  private bandPeaks(): void {
+    const { cc, grid, searches, searchNode, searchPlus } = this;
+    const parent = cc.topology.parent;
+    const sw = (this.bandSweep = cc.sweep(grid, this.bandSweep));
+    for (let j = 0; j < searches.length; j++) {
+      const i = searchNode[j];
+      const values = searches[j].values;
+      if (searchPlus[j]) {
+        const re = sw.cumRe[parent[i]];
+        const im = sw.cumIm[parent[i]];
+        for (let k = 0; k < grid.length; k++) values[k] = magnitude(re[k], im[k]) * this.plusRatio(i, sw.omega[k]);
+      } else {
+        const re = sw.cumRe[i];
+        const im = sw.cumIm[i];
+        for (let k = 0; k < grid.length; k++) values[k] = magnitude(re[k], im[k]);
+      }
+    }
+    const peaks = bandMaxMany(
+      searches,
+      (freqs, which, out, count) => {
+        // a sweep of the `count` frequencies asked for, with buffers kept per count
+        const st = (this.stepSweeps[count] = cc.sweep(freqs.subarray(0, count), this.stepSweeps[count]));
+        for (let c = 0; c < count; c++) {
+          const j = which[c];
+          const i = searchNode[j];
+          const at = searchPlus[j] ? parent[i] : i;
+          const m = magnitude(st.cumRe[at][c], st.cumIm[at][c]);
+          out[c] = searchPlus[j] ? m * this.plusRatio(i, st.omega[c]) : m;
+        }
+      },
+      PEAK_TOL,
+      "brent",
+    );
+    for (let j = 0; j < searches.length; j++) (searchPlus[j] ? this.plusGain : this.gain)[searchNode[j]] = num(peaks[j].value);
+  }
+
+  /** Evaluates the build loaded into `cc` into `f`. */
+  evaluate(f: Figures): void {
+    const { cc, n, amp, table, re, im } = this;
+    const chain = cc.chain;
+    for (const k of this.cmError) table.values[k] = dcValue(chain, cc.sources[k]);
+    f.dcGain.fill(NaN);
+    f.f0.fill(NaN);
+    f.q.fill(NaN);
+    f.margin.fill(NaN);
+    f.clip.fill(0);
+    this.bandPeaks();
+    cc.setFrequency(0);
+    for (let i = 1; i < n; i++) {
+      const node = chain.nodes[this.order[i]];
+      const kind = node.kind;
+      const h = cc.stageAt(i).hRe;
+      f.dcGain[i] = kind === "integrator" || kind === "adc" || !Number.isFinite(h) ? NaN : h;
+      const ideal = idealCharacteristics(node);
+      f.f0[i] = num(ideal.f0);
+      f.q[i] = num(ideal.q);
+      if (kind !== "adc" && !isOpAmpKind(kind)) continue;
+      cc.transfersTo(i, false, re, im);
+      const dc = dcInterval(table, cc, re);
+      const gain = this.gain[i];
+      const acPeak = amp * gain;
+      if (kind === "adc") {
+        if (!dc || !Number.isFinite(gain)) f.clip[i] = 1;
+        else {
+          const m = Math.min(dc.min - acPeak - this.outLow[i], this.outHigh[i] - (dc.max + acPeak));
+          f.margin[i] = m;
+          if (m < 0) f.clip[i] = 1;
+        }
+        continue;
+      }
+      if (kind === "integrator") f.clip[i] = 1;
+      cc.transfersTo(i, true, re, im);
+      const plus = dcInterval(table, cc, re);
+      const plusGain = this.plusGain[i];
+      const plusAc = amp * plusGain;
+      if (!dc || !Number.isFinite(gain) || !plus || !Number.isFinite(plusGain)) {
+        f.clip[i] = 1;
+        continue;
+      }
+      const m = Math.min(
+        dc.min - acPeak - this.outLow[i],
+        this.outHigh[i] - (dc.max + acPeak),
+        plus.min - plusAc - this.inLow[i],
+        this.inHigh[i] - (plus.max + plusAc),
+      );
+      f.margin[i] = m;
+      if (m < 0) f.clip[i] = 1;
+    }
+  }
 }
 
 const METRICS: SpreadMetric[] = ["dcGain", "f0", "q", "margin"];
@@ -487,8 +621,12 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
   const ends = cc.paths.map((p) => p.end);
   const rng = mulberry32(opts.seed);
   const order = Int32Array.from(nodes, (x) => chain.nodes.indexOf(x));
-  // the nodes whose band peaks the margins need: op-amp stages and converters
-  const headroom = Uint8Array.from(nodes, (x) => (isOpAmpKind(x.kind) || x.kind === "adc" ? 1 : 0));
+  const figures = new BuildFigures(cc, order);
+  const evaluate = (into: Figures = newFigures(n)) => {
+    figures.evaluate(into);
+    return into;
+  };
+  const buildFigures = newFigures(n);
 
   // accumulators
   const envMin = ends.map(() => new Float64Array(G).fill(Infinity));
@@ -515,7 +653,7 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
   const load = (factor: ArrayLike<number>) => cc.retune(chainWithFactors(chain, parts, factor));
   const magDb = (sw: SweepResult, e: number, out: Float64Array) => {
     for (let k = 0; k < G; k++) {
-      const m = Math.hypot(sw.cumRe[e][k], sw.cumIm[e][k]);
+      const m = magnitude(sw.cumRe[e][k], sw.cumIm[e][k]);
       out[k] = sw.pole[k] || !(m > 0) || !Number.isFinite(m) ? NaN : 20 * Math.log10(m);
     }
   };
@@ -602,7 +740,7 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
         magDb(sweep!, e, out);
         return out;
       });
-      nominal = figuresOf(cc, order, headroom);
+      nominal = evaluate();
       if (P === 0) {
         cornerPlan = [];
         buildSensitivity();
@@ -613,7 +751,7 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
       factors.fill(1);
       factors[k] = up ? 1 + SENS_STEP : 1 - SENS_STEP;
       load(factors);
-      (up ? sensUp : sensDown)[k] = figuresOf(cc, order, headroom);
+      (up ? sensUp : sensDown)[k] = evaluate();
       if (unit === sensUnits) {
         cornerPlan = planCorners();
         cornerUnits = 2 * cornerPlan.length;
@@ -625,7 +763,7 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
       const high = c % 2 === 1;
       for (let k = 0; k < P; k++) factors[k] = 1 + (high ? -pl.signs[k] : pl.signs[k]) * parts[k].tolerance;
       load(factors);
-      const v = metricOf(figuresOf(cc, order, headroom), pl.metric)[pl.nodeIndex];
+      const v = metricOf(evaluate(buildFigures), pl.metric)[pl.nodeIndex];
       if (!high) cornerVals.push({ low: v, high: NaN });
       else cornerVals[cornerVals.length - 1].high = v;
       if (unit === sensUnits + cornerUnits) {
@@ -649,7 +787,7 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
           env95[pi].add(k, v);
         }
       });
-      const fig = figuresOf(cc, order, headroom);
+      const fig = evaluate(buildFigures);
       let any = false;
       for (let i = 0; i < n; i++) {
         if (fig.clip[i]) {
