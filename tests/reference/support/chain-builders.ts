@@ -10,6 +10,18 @@
 import type {
   AdcNode,
   AdcParams,
+  BridgeNode,
+  BridgeParams,
+  ChargeAmpNode,
+  DifferenceAmpNode,
+  InAmpNode,
+  PhotodiodeNode,
+  PhotodiodeParams,
+  PiezoNode,
+  PiezoParams,
+  ThermocoupleNode,
+  ThermocoupleParams,
+  TransimpedanceNode,
   AnalysisSettings,
   Chain,
   ChainNode,
@@ -139,6 +151,57 @@ export function rcLowpass(id: string, p: { r: number; c: number }, label?: strin
 
 export function rcHighpass(id: string, p: { r: number; c: number; vbias?: number }, label?: string): RcHighpassNode {
   return { id, kind: "rcHighpass", params: { vbias: 0, ...p }, ...(label ? { label } : {}) };
+}
+
+// sensor sources and their front-end stages (lib/chain/README.md, "Sensor sources and front-end stages");
+// defaults as in that table
+
+export function bridge(params: Partial<BridgeParams> = {}, id = "src"): BridgeNode {
+  return {
+    id,
+    kind: "bridge",
+    params: { excitation: 5, fullScale: 2e-3, loadLow: 0, loadHigh: 1, offset: 0, resistance: 350, vcm: null, fLow: 0, fHigh: 100, noiseDensity: 0, safety: "low-voltage", ...params },
+  };
+}
+
+export function thermocouple(params: Partial<ThermocoupleParams> = {}, id = "src"): ThermocoupleNode {
+  return {
+    id,
+    kind: "thermocouple",
+    params: { seebeck: 41e-6, tLow: 0, tHigh: 400, tCold: 25, coldJunctionError: 0, leadResistance: 0, vcm: 0, fHigh: 10, safety: "low-voltage", ...params },
+  };
+}
+
+export function photodiode(params: Partial<PhotodiodeParams> = {}, id = "src"): PhotodiodeNode {
+  return {
+    id,
+    kind: "photodiode",
+    params: { dc: 0, dcSpread: 0, amplitude: 1e-6, fLow: 1, fHigh: 1e4, capacitance: 1e-10, shuntResistance: 1e9, darkCurrent: 0, noiseDensity: 0, safety: "low-voltage", ...params },
+  };
+}
+
+export function piezo(params: Partial<PiezoParams> = {}, id = "src"): PiezoNode {
+  return {
+    id,
+    kind: "piezo",
+    params: { amplitude: 1e-10, fLow: 1, fHigh: 1e4, capacitance: 1e-9, leakage: 1e10, safety: "low-voltage", ...params },
+  };
+}
+
+export function transimpedance(id: string, p: { rf: number; cf?: number; cin?: number; vref?: number }, o: OpAmpOpts = {}): TransimpedanceNode {
+  return { ...opAmpBase(id, o), kind: "transimpedance", params: { cf: 0, cin: 0, vref: 0, ...p } };
+}
+
+export function chargeAmp(id: string, p: { cf: number; rf: number; cin?: number; vref?: number }, o: OpAmpOpts = {}): ChargeAmpNode {
+  return { ...opAmpBase(id, o), kind: "chargeAmp", params: { cin: 0, vref: 0, ...p } };
+}
+
+export function differenceAmp(id: string, p: { r1: number; r2: number; r3: number; r4: number; vref?: number }, o: OpAmpOpts = {}): DifferenceAmpNode {
+  return { ...opAmpBase(id, o), kind: "differenceAmp", params: { vref: 0, ...p } };
+}
+
+export function inAmp(id: string, p: { rg: number; rf?: number; rd?: number; vref?: number; cmrrDb?: number | null }, o: OpAmpOpts = {}): InAmpNode {
+  return { ...opAmpBase(id, o), kind: "inAmp", params: { rf: 25e3, rd: 10e3, vref: 0, cmrrDb: null, ...p } };
 }
 
 export function adc(id: string, p: Partial<AdcParams> = {}): AdcNode {

@@ -61,7 +61,30 @@ export interface OpAmp {
   owner: string;
   part: Part;
 }
-export type Element = Resistor | Capacitor | VSource | OpAmp;
+/**
+ * Voltage-controlled voltage source V(p) = Σ gain·V(node), to ground: the bridge's and the
+ * thermocouple's two output nets E± = vcm ± Vd/2, built from a Vd and a vcm source.
+ */
+export interface VcVs {
+  kind: "E";
+  p: string;
+  terms: { node: string; gain: number }[];
+  owner: string;
+}
+/**
+ * Current g(s)·V(ctrl) driven into node `into` (returning through ground): the photodiode's
+ * current (g = 1, one ampere per volt of its emf source) and the piezo's charge (g = s: the
+ * current of a charge q is s·q). The controlling node carries the source's emf, so the emf
+ * transfer is per ampere or per coulomb, the unit of the source's output.
+ */
+export interface VcCs {
+  kind: "G";
+  into: string;
+  ctrl: string;
+  derivative: boolean;
+  owner: string;
+}
+export type Element = Resistor | Capacitor | VSource | OpAmp | VcVs | VcCs;
 
 export interface Net {
   chain: Chain;
@@ -69,14 +92,16 @@ export interface Net {
   /** net node names in unknown order (ground excluded) */
   nodes: string[];
   index: Map<string, number>;
-  /** number of unknowns */
+  /** number of unknowns (node voltages, then the currents of voltage sources, VCVSs and op-amps) */
   size: number;
   /** row/column of each voltage source and op-amp, keyed by the element object */
   extra: Map<Element, number>;
   /** chain node id → net node holding its output (an ADC maps to its input pin) */
   outputOf: Map<string, string>;
-  /** op-amp stage id → its op-amp element */
+  /** op-amp stage id → its op-amp element (the in-amp: A3, the one driving its output) */
   opamps: Map<string, OpAmp>;
+  /** op-amp stage id → every op-amp element it holds (three for the in-amp) */
+  stageOpamps: Map<string, OpAmp[]>;
   /** chain node ids whose DC value is unbounded (an integrator or anything after it) */
   dcUnbounded: Set<string>;
   dcMode: boolean;
@@ -91,7 +116,18 @@ const OPAMP_KINDS = new Set([
   "mfbLowpass",
   "sallenKeyHighpass",
   "mfbHighpass",
+  // sensor front ends (lib/chain/README.md, "Sensor sources and front-end stages")
+  "transimpedance",
+  "chargeAmp",
+  "differenceAmp",
+  "inAmp",
 ]);
+
+/** Sections with a series capacitor at their input: their DC output does not depend on the input's. */
+const DC_BLOCKING = new Set(["rcHighpass", "sallenKeyHighpass", "mfbHighpass"]);
+
+/** The source kinds: the plain EMF and the four sensors of lib/chain/README.md. */
+export const SOURCE_KINDS = new Set(["source", "bridge", "photodiode", "piezo", "thermocouple"]);
 
 export function isOpAmpKind(kind: string): boolean {
   return OPAMP_KINDS.has(kind);
@@ -127,6 +163,9 @@ export function buildNet(chain: Chain, opts: { dcMode?: boolean } = {}): Net {
   const elements: Element[] = [];
   const outputOf = new Map<string, string>();
   const opamps = new Map<string, OpAmp>();
+  const stageOpamps = new Map<string, OpAmp[]>();
+  // a differential source's two output nets, after its legs: E+ at `p`, E− at `m`
+  const diffOf = new Map<string, { p: string; m: string }>();
   const dcUnbounded = new Set<string>();
   const R = (a: string, b: string, r: number, owner: string, element: string, noisy = true) =>
     elements.push({ kind: "R", a, b, r, owner, element, noisy });
@@ -144,6 +183,32 @@ export function buildNet(chain: Chain, opts: { dcMode?: boolean } = {}): Net {
     const op: OpAmp = { kind: "opamp", p, n, out, owner, part };
     elements.push(op);
     opamps.set(owner, op);
+    stageOpamps.set(owner, [...(stageOpamps.get(owner) ?? []), op]);
+  };
+  // a leg resistance from a to a new node b, or the same node when the leg is 0 Ω
+  const leg = (a: string, b: string, r: number, owner: string, element: string) => {
+    if (!(r > 0)) return a;
+    R(a, b, r, owner, element);
+    return b;
+  };
+  /**
+   * A differential sensor: Vd (the emf, per volt of difference) and vcm (a DC level, an AC
+   * ground) make E± = vcm ± Vd/2 (lib/chain/README.md, bridge and thermocouple rows), each
+   * behind its leg resistance.
+   */
+  const differential = (id: string, vd: number, vcm: number, legR: number) => {
+    elements.push({ kind: "V", p: `${id}:vd`, owner: id, role: "emf", dc: vd });
+    ref(`${id}:cm`, vcm, id);
+    elements.push({ kind: "E", p: `${id}:E+`, terms: [{ node: `${id}:cm`, gain: 1 }, { node: `${id}:vd`, gain: 0.5 }], owner: id });
+    elements.push({ kind: "E", p: `${id}:E-`, terms: [{ node: `${id}:cm`, gain: 1 }, { node: `${id}:vd`, gain: -0.5 }], owner: id });
+    diffOf.set(id, { p: leg(`${id}:E+`, `${id}:p`, legR, id, "leg+"), m: leg(`${id}:E-`, `${id}:m`, legR, id, "leg-") });
+  };
+  /** A Norton sensor: its output current (or charge) into node `id`, with its shunt to ground. */
+  const norton = (id: string, dc: number, derivative: boolean, rsh: number, csh: number, rName: string) => {
+    elements.push({ kind: "V", p: `${id}:emf`, owner: id, role: "emf", dc });
+    elements.push({ kind: "G", into: id, ctrl: `${id}:emf`, derivative, owner: id });
+    R(id, GND, rsh, id, rName);
+    C(id, GND, csh, id, "capacitance");
   };
 
   // a Sallen-Key section's (−) pin: the output itself, or the tap of rf (out→(−)) and rg ((−)→vref)
@@ -159,7 +224,9 @@ export function buildNet(chain: Chain, opts: { dcMode?: boolean } = {}): Net {
     const id = node.id;
     const inId = pred.get(id);
     const input = inId !== undefined ? outputOf.get(inId)! : GND;
-    if (inId !== undefined && dcUnbounded.has(inId)) dcUnbounded.add(id);
+    // unbounded DC carries on through DC-coupled stages; a section whose input capacitor blocks DC
+    // (the RC and the two high-pass filters) is bounded again (chain-format.md: "everything DC-coupled")
+    if (inId !== undefined && dcUnbounded.has(inId) && !DC_BLOCKING.has(node.kind)) dcUnbounded.add(id);
     const out = id;
     switch (node.kind) {
       case "source": {
@@ -170,6 +237,76 @@ export function buildNet(chain: Chain, opts: { dcMode?: boolean } = {}): Net {
         } else {
           elements.push({ kind: "V", p: out, owner: id, role: "emf", dc: p.dc });
         }
+        outputOf.set(id, out);
+        break;
+      }
+      // sensor sources (lib/chain/README.md, "Sensor sources and front-end stages")
+      case "bridge": {
+        const p = node.params;
+        // Vd over excitation·fullScale·[loadLow, loadHigh]: its DC is the mid-point
+        const vd = (p.excitation * p.fullScale * (p.loadLow + p.loadHigh)) / 2;
+        differential(id, vd, p.vcm ?? p.excitation / 2, p.resistance / 2);
+        break;
+      }
+      case "thermocouple": {
+        const p = node.params;
+        // Vd = seebeck·(t − tCold) over [tLow, tHigh]: its DC is the mid-point
+        differential(id, p.seebeck * ((p.tLow + p.tHigh) / 2 - p.tCold), p.vcm, p.leadResistance);
+        break;
+      }
+      case "photodiode": {
+        const p = node.params;
+        norton(id, p.dc + p.darkCurrent, false, p.shuntResistance, p.capacitance, "shuntResistance");
+        outputOf.set(id, out);
+        break;
+      }
+      case "piezo": {
+        const p = node.params;
+        norton(id, 0, true, p.leakage, p.capacitance, "leakage");
+        outputOf.set(id, out);
+        break;
+      }
+      // front-end stages: the sensor current into (−), rf ∥ cf out→(−), cin (−)→ground, (+) at vref
+      case "transimpedance":
+      case "chargeAmp": {
+        const p = node.params;
+        R(input, out, p.rf, id, "rf");
+        if (p.cf > 0) C(input, out, p.cf, id, "cf");
+        if (p.cin > 0) C(input, GND, p.cin, id, "cin");
+        amp(id, ref(`${id}:ref`, p.vref, id), input, out, node.part);
+        outputOf.set(id, out);
+        break;
+      }
+      case "differenceAmp": {
+        // E− → leg → r1 → (−), r2 out→(−); E+ → leg → r3 → (+), r4 (+)→vref
+        const p = node.params;
+        const d = diffOf.get(inId!)!;
+        const n = `${id}:n`;
+        const pl = `${id}:p`;
+        R(d.m, n, p.r1, id, "r1");
+        R(n, out, p.r2, id, "r2");
+        R(d.p, pl, p.r3, id, "r3");
+        R(pl, ref(`${id}:ref`, p.vref, id), p.r4, id, "r4");
+        amp(id, pl, n, out, node.part);
+        outputOf.set(id, out);
+        break;
+      }
+      case "inAmp": {
+        // A1, A2 buffer E+, E−; rf from each output to its (−); rg between the (−) nodes;
+        // A3: o2 → rd → (−), rd out→(−); o1 → rd → (+), rd (+)→vref. All three of the one part.
+        const p = node.params;
+        const d = diffOf.get(inId!)!;
+        const [o1, o2, n1, n2, n3, p3] = ["o1", "o2", "n1", "n2", "n3", "p3"].map((x) => `${id}:${x}`);
+        R(o1, n1, p.rf, id, "rf1");
+        R(o2, n2, p.rf, id, "rf2");
+        R(n1, n2, p.rg, id, "rg");
+        amp(id, d.p, n1, o1, node.part);
+        amp(id, d.m, n2, o2, node.part);
+        R(o2, n3, p.rd, id, "rd1");
+        R(n3, out, p.rd, id, "rd2");
+        R(o1, p3, p.rd, id, "rd3");
+        R(p3, ref(`${id}:ref`, p.vref, id), p.rd, id, "rd4");
+        amp(id, p3, n3, out, node.part);
         outputOf.set(id, out);
         break;
       }
@@ -304,7 +441,13 @@ export function buildNet(chain: Chain, opts: { dcMode?: boolean } = {}): Net {
       addNode(el.a);
       addNode(el.b);
     } else if (el.kind === "V") addNode(el.p);
-    else {
+    else if (el.kind === "E") {
+      addNode(el.p);
+      el.terms.forEach((t) => addNode(t.node));
+    } else if (el.kind === "G") {
+      addNode(el.into);
+      addNode(el.ctrl);
+    } else {
       addNode(el.p);
       addNode(el.n);
       addNode(el.out);
@@ -312,8 +455,8 @@ export function buildNet(chain: Chain, opts: { dcMode?: boolean } = {}): Net {
   }
   const extra = new Map<Element, number>();
   let k = names.length;
-  for (const el of elements) if (el.kind === "V" || el.kind === "opamp") extra.set(el, k++);
-  return { chain, elements, nodes: names, index, size: k, extra, outputOf, opamps, dcUnbounded, dcMode };
+  for (const el of elements) if (el.kind === "V" || el.kind === "opamp" || el.kind === "E") extra.set(el, k++);
+  return { chain, elements, nodes: names, index, size: k, extra, outputOf, opamps, stageOpamps, dcUnbounded, dcMode };
 }
 
 /** 1/A(s) of the single-pole op-amp model (chain-format.md), s = j·ω; 0 for an ideal op-amp. */
@@ -348,6 +491,16 @@ export function assemble(net: Net, s: Cx): Cx[][] {
       const p = at(el.p);
       add(p, k, cx(1, 0));
       add(k, p, cx(1, 0));
+    } else if (el.kind === "E") {
+      // row: V(p) − Σ gain·V(node) = 0; its current leaves p's KCL like a source's
+      const k = net.extra.get(el)!;
+      const p = at(el.p);
+      add(p, k, cx(1, 0));
+      add(k, p, cx(1, 0));
+      for (const t of el.terms) add(k, at(t.node), cx(-t.gain, 0));
+    } else if (el.kind === "G") {
+      // g·V(ctrl) flows into `into`: on the left of its KCL (currents leaving) as −g·V(ctrl)
+      add(at(el.into), at(el.ctrl), el.derivative ? s.neg() : cx(-1, 0));
     } else {
       const k = net.extra.get(el)!;
       add(at(el.out), k, cx(1, 0));

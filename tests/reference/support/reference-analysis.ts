@@ -5,7 +5,7 @@
  */
 import { cx, type Cx } from "./cx";
 import type { Chain, Interval } from "@/lib/chain/types";
-import { adjoint, buildNet, forward, GND, jw, K_BOLTZMANN, weight, type Injection, type Net } from "./nodal";
+import { adjoint, buildNet, forward, GND, jw, K_BOLTZMANN, SOURCE_KINDS, weight, type Injection, type Net } from "./nodal";
 import { integrateLogVec } from "./simpson";
 
 const ZERO = cx(0, 0);
@@ -14,30 +14,127 @@ function mag(z: Cx): number {
   return z.abs();
 }
 
-/** The source node of a chain. */
+/** The source node of a chain: a plain `source` or one of the four sensor kinds. */
 export function sourceOf(chain: Chain) {
-  const s = chain.nodes.find((n) => n.kind === "source");
-  if (!s || s.kind !== "source") throw new Error("chain has no source");
+  const s = chain.nodes.find((n) => SOURCE_KINDS.has(n.kind));
+  if (!s) throw new Error("chain has no source");
   return s;
+}
+
+/** Elementary charge, C, exact since the 2019 SI (SI Brochure 9th ed.). */
+export const Q_ELECTRON = 1.602176634e-19;
+
+/**
+ * What the source puts out, in its own unit (V, V of difference, A, C), read from the
+ * tables of lib/chain/README.md ("Sensor sources"): the nominal DC, its ± spread, the peak
+ * amplitude, the band, and the PSD of the noise that sits on the emf itself (the source's
+ * resistance, legs, shunt or leakage are resistors of the net and make their own noise).
+ */
+export interface SourceSignal {
+  id: string;
+  dc: number;
+  spread: number;
+  amplitude: number;
+  fLow: number;
+  fHigh: number;
+  emfPsd: number;
+}
+export function signalOf(chain: Chain): SourceSignal {
+  const s = sourceOf(chain);
+  switch (s.kind) {
+    case "source": {
+      const p = s.params;
+      return { id: s.id, dc: p.dc, spread: p.dcSpread, amplitude: p.amplitude, fLow: p.fLow, fHigh: p.fHigh, emfPsd: p.noiseDensity ** 2 };
+    }
+    case "bridge": {
+      // Vd over excitation·fullScale·[loadLow, loadHigh]: DC the mid-point, amplitude half the span, ± excitation·offset
+      const p = s.params;
+      const fs = p.excitation * p.fullScale;
+      return { id: s.id, dc: (fs * (p.loadLow + p.loadHigh)) / 2, spread: p.excitation * p.offset, amplitude: (fs * (p.loadHigh - p.loadLow)) / 2, fLow: p.fLow, fHigh: p.fHigh, emfPsd: p.noiseDensity ** 2 };
+    }
+    case "thermocouple": {
+      // Vd = seebeck·(t − tCold) over [tLow, tHigh], ± seebeck·coldJunctionError; no fLow: the band starts at DC
+      const p = s.params;
+      return { id: s.id, dc: p.seebeck * ((p.tLow + p.tHigh) / 2 - p.tCold), spread: p.seebeck * p.coldJunctionError, amplitude: (p.seebeck * Math.abs(p.tHigh - p.tLow)) / 2, fLow: 0, fHigh: p.fHigh, emfPsd: 0 };
+    }
+    case "photodiode": {
+      // DC dc + darkCurrent; shot noise 2q·I (Schottky's formula) and the extra noiseDensity, as currents
+      const p = s.params;
+      const i = p.dc + p.darkCurrent;
+      return { id: s.id, dc: i, spread: p.dcSpread, amplitude: p.amplitude, fLow: p.fLow, fHigh: p.fHigh, emfPsd: 2 * Q_ELECTRON * Math.abs(i) + p.noiseDensity ** 2 };
+    }
+    case "piezo": {
+      const p = s.params;
+      return { id: s.id, dc: 0, spread: 0, amplitude: p.amplitude, fLow: p.fLow, fHigh: p.fHigh, emfPsd: 0 };
+    }
+    default:
+      throw new Error(`${s.kind} is not a source kind`);
+  }
+}
+
+/**
+ * The ± common-mode error of a difference or instrumentation amplifier (lib/engine/README.md,
+ * sensor section): the difference amplifier's |vcm| times the first-order worst-case spread of
+ * its common-mode gain over the resistor tolerance, the in-amp's |vcm|·G/CMRR when cmrrDb is
+ * given, both as the ideal stage would show them at its output. Acm with legs L is the closed
+ * form of lib/chain/README.md, ((a + r2)·k − r2)/a = k + r2·(k − 1)/a, a = r1 + L,
+ * k = r4/(r3 + L + r4); its log-sensitivities, derived by hand:
+ *   ∂Acm/∂ln r1 = −r1·r2·(k − 1)/a²,  ∂Acm/∂ln r2 = r2·(k − 1)/a,
+ *   ∂Acm/∂ln r3 = −(1 + r2/a)·r3·r4/D²,  ∂Acm/∂ln r4 = (1 + r2/a)·(r3 + L)·r4/D², D = r3 + L + r4.
+ * Matched (L = 0, r4/r3 = r2/r1 = G) each is ±G/(1 + G), the sum 4t·G/(1 + G) of the README.
+ * `noiseGain` is the ideal gain from a voltage in series with the output op-amp's (+) to the
+ * output (1 + r2/a; the in-amp's unity difference stage: 2), so err/noiseGain in that place is
+ * the error at the ideal output, and a finite loop gain shrinks it as it shrinks the nominal
+ * common-mode gain (the engine does so; its README says only "referred to the stage output").
+ * The tolerance is `tolerances.resistor`, as the engine's README says "the resistor tolerance";
+ * no reference chain here carries per-part overrides for these stages.
+ */
+export function cmError(chain: Chain, stageId: string): { err: number; noiseGain: number } {
+  const node = chain.nodes.find((n) => n.id === stageId)!;
+  const src = sourceOf(chain);
+  let vcm = 0;
+  let legR = 0;
+  if (src.kind === "bridge") {
+    vcm = src.params.vcm ?? src.params.excitation / 2;
+    legR = src.params.resistance / 2;
+  } else if (src.kind === "thermocouple") {
+    vcm = src.params.vcm;
+    legR = src.params.leadResistance;
+  }
+  if (node.kind === "inAmp") {
+    const p = node.params;
+    return { err: p.cmrrDb === null ? 0 : (Math.abs(vcm) * (1 + (2 * p.rf) / p.rg)) / Math.pow(10, p.cmrrDb / 20), noiseGain: 2 };
+  }
+  if (node.kind !== "differenceAmp") return { err: 0, noiseGain: 1 };
+  const { r1, r2, r3, r4 } = node.params;
+  const a = r1 + legR;
+  const D = r3 + legR + r4;
+  const k = r4 / D;
+  const sens = [-(r1 * r2 * (k - 1)) / (a * a), (r2 * (k - 1)) / a, (-(1 + r2 / a) * r3 * r4) / (D * D), ((1 + r2 / a) * (r3 + legR) * r4) / (D * D)];
+  const t = chain.tolerances.resistor;
+  return { err: Math.abs(vcm) * t * sens.reduce((acc, x) => acc + Math.abs(x), 0), noiseGain: 1 + r2 / a };
 }
 
 /**
  * DC interval at a net node (chain-format.md "DC operating point as intervals"):
- * centre from the source dc and every vref/vbias; half-width
- * |g_emf|·dcSpread + Σ |g_vos|·vos + Σ (|g_ib+| + |g_ib−|)·ib, every sign independent.
+ * centre from the source dc and every vref/vbias (and a differential source's vcm);
+ * half-width |g_emf|·spread + Σ |g_vos|·vos + Σ (|g_ib+| + |g_ib−|)·ib over every op-amp
+ * (the in-amp's three included), every sign independent, plus each difference or in-amp
+ * stage's common-mode error, entered as err/noiseGain in series with its output op-amp's (+)
+ * (cmError).
  */
 export function dcIntervalAtNet(chain: Chain, netNode: string): Interval | null {
   const net = buildNet(chain, { dcMode: true });
   const y = adjoint(net, ZERO, netNode);
   if (!y) return null;
-  const src = sourceOf(chain);
+  const sig = signalOf(chain);
   let centre = 0;
   let half = 0;
   for (const el of net.elements) {
     if (el.kind === "V") {
       const w = weight(net, y, { type: "ref", source: el }).re;
       centre += w * el.dc;
-      if (el.role === "emf") half += Math.abs(w) * src.params.dcSpread;
+      if (el.role === "emf") half += Math.abs(w) * sig.spread;
     } else if (el.kind === "opamp") {
       const vos = el.part.vos ?? 0;
       const ib = el.part.ib ?? 0;
@@ -45,6 +142,10 @@ export function dcIntervalAtNet(chain: Chain, netNode: string): Interval | null 
       half += Math.abs(weight(net, y, { type: "current", a: el.p, b: GND }).re) * ib;
       half += Math.abs(weight(net, y, { type: "current", a: el.n, b: GND }).re) * ib;
     }
+  }
+  for (const n of chain.nodes) {
+    const { err, noiseGain } = cmError(chain, n.id);
+    if (err > 0) half += (Math.abs(weight(net, y, { type: "series", opamp: net.opamps.get(n.id)! }).re) * err) / noiseGain;
   }
   return { min: centre - half, max: centre + half };
 }
@@ -129,7 +230,7 @@ export function maxOverBand(g: (f: number) => number, lo: number, hi: number): {
 /** acPeak = amplitude · max |H_src→node| over [fLow, fHigh] (chain-format.md "Headroom"). */
 export function acPeakAtNet(chain: Chain, netNode: string): number {
   const net = netOf(chain);
-  const sp = sourceOf(chain).params;
+  const sp = signalOf(chain);
   return sp.amplitude * maxOverBand((f) => magAt(net, netNode, f), sp.fLow, sp.fHigh).value;
 }
 
@@ -142,7 +243,7 @@ export function acPeak(chain: Chain, nodeId: string): number {
 export function slewNeeded(chain: Chain, nodeId: string): number {
   const net = netOf(chain);
   const node = net.outputOf.get(nodeId)!;
-  const sp = sourceOf(chain).params;
+  const sp = signalOf(chain);
   return maxOverBand((f) => 2 * Math.PI * f * sp.amplitude * magAt(net, node, f), sp.fLow, sp.fHigh).value;
 }
 
@@ -163,7 +264,7 @@ export interface NoiseSource {
 export function noiseSources(net: Net): NoiseSource[] {
   const T = net.chain.analysis.temperatureK;
   const out: NoiseSource[] = [];
-  const src = sourceOf(net.chain);
+  const sig = signalOf(net.chain);
   for (const el of net.elements) {
     if (el.kind === "R" && el.noisy) {
       const p = (4 * K_BOLTZMANN * T) / el.r;
@@ -178,8 +279,8 @@ export function noiseSources(net: Net): NoiseSource[] {
       }
     }
   }
-  const nd = src.params.noiseDensity;
-  if (nd > 0) out.push({ owner: src.id, element: "source", inj: { type: "emf" }, psd: () => nd * nd });
+  // noise on the emf itself: the source's noiseDensity (V or A per √Hz), a photodiode's shot noise
+  if (sig.emfPsd > 0) out.push({ owner: sig.id, element: "source", inj: { type: "emf" }, psd: () => sig.emfPsd });
   return out;
 }
 
