@@ -14,11 +14,14 @@
  * analysis lands between edits and competes for the main thread).
  *
  * Before the paces: opening the chain cold, navigation → first plot drawn and → a keystroke in a value
- * field answered (`firstInteraction`; --first-runs N, default 5; --first-only stops after it).
+ * field answered (`firstInteraction`; --first-runs N, default 5; --first-only stops after it), the longest
+ * main-thread task (PerformanceObserver "longtask") before that answer and in the first 6 s, and when
+ * the plotting library was ready (its `cw:plotly-ready` mark), if it loaded then.
  *
  * Options: --edits N (per pace, default 60), --reuse (use an existing build: E2E_REUSE_BUILD=1),
- * --profile (record the page's main thread with the DevTools profiler during the typing pace: the
- * profile goes to artifacts/bench-ui.cpuprofile and the heaviest functions are printed).
+ * --profile (record the page's main thread with the DevTools profiler during the typing pace, and
+ * during the first opening of the chain: the profiles go to artifacts/bench-ui.cpuprofile and
+ * artifacts/bench-ui-open.cpuprofile and the heaviest functions are printed).
  * Builds with the browser-test harness into E2E_DIST_DIR (default .next-e2e).
  */
 import { mkdirSync, writeFileSync } from "node:fs";
@@ -38,6 +41,8 @@ const arg = (name: string, fallback: number) => {
 const EDITS = arg("edits", 60);
 const WARMUP = 10;
 const PROFILE = process.argv.includes("--profile");
+/** --trace: a Chromium trace of the first opening (artifacts/bench-ui-open.trace.json), its main thread by kind of work */
+const TRACE = process.argv.includes("--trace");
 /** --first-only: measure opening a chain (first plot, first keystroke) and skip the edit paces */
 const FIRST_ONLY = process.argv.includes("--first-only");
 const FIRST_RUNS = arg("first-runs", 5);
@@ -102,6 +107,23 @@ const EDIT_IN_PAGE = `async (text) => {
   }
 }`;
 
+/**
+ * Polls an expression in the page until it is truthy and answers its value. Not page.waitForFunction:
+ * Playwright evaluates a predicate given as text with eval, which the page's content security policy
+ * refuses; page.evaluate of text goes through the DevTools protocol, which the policy does not govern.
+ */
+async function waitInPage<T>(page: Page, expression: string, timeoutMs = 60_000): Promise<T> {
+  return page.evaluate(`(async () => {
+    const t0 = performance.now();
+    for (;;) {
+      const v = (${expression});
+      if (v) return v;
+      if (performance.now() > t0 + ${timeoutMs}) throw new Error(${JSON.stringify(`not so within ${timeoutMs} ms: ${expression}`)});
+      await new Promise((r) => setTimeout(r, 5));
+    }
+  })()`) as Promise<T>;
+}
+
 async function oneEdit(page: Page, value: string): Promise<Sample> {
   return page.evaluate(`(${EDIT_IN_PAGE})(${JSON.stringify(value)})`) as Promise<Sample>;
 }
@@ -132,7 +154,7 @@ async function pace(page: Page, gapMs: number, label: string) {
 }
 
 /** Self time by function and script, busiest first (idle and the profiler itself left out). */
-function printHeaviest(profile: { nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number } }[]; samples?: number[]; timeDeltas?: number[] }) {
+function printHeaviest(profile: { nodes: { id: number; callFrame: { functionName: string; url: string; lineNumber: number } }[]; samples?: number[]; timeDeltas?: number[] }, during = "the typing pace") {
   const byId = new Map(profile.nodes.map((n) => [n.id, n]));
   const self = new Map<string, number>();
   let busy = 0;
@@ -144,8 +166,52 @@ function printHeaviest(profile: { nodes: { id: number; callFrame: { functionName
     self.set(key, (self.get(key) ?? 0) + dt);
     busy += dt;
   });
-  console.log(`\nmain thread during the typing pace: ${busy.toFixed(0)} ms busy; heaviest self time:`);
+  console.log(`\nmain thread during ${during}: ${busy.toFixed(0)} ms busy; heaviest self time:`);
   for (const [k, ms] of [...self].sort((a, b) => b[1] - a[1]).slice(0, 25)) console.log(`  ${ms.toFixed(1).padStart(8)} ms  ${k}`);
+}
+
+/**
+ * The renderer's main thread in a trace, by kind of work (top-level events only, so nothing is counted
+ * twice), from navigation to `untilMs` after it and after that, and its ten longest tasks.
+ */
+function printTraceKinds(trace: { traceEvents: { name: string; ph: string; ts: number; dur?: number; tid: number; pid: number; args?: { data?: { documentLoaderURL?: string } } }[] }, untilMs: number) {
+  const events = trace.traceEvents;
+  // the page's main thread: the thread its navigation started on
+  const navStart = events.find((e) => e.name === "navigationStart" && e.args?.data?.documentLoaderURL?.includes("/chains/"));
+  if (!navStart) return console.log("  (the trace has no navigation to the chain)");
+  const onMain = events.filter((e) => e.pid === navStart.pid && e.tid === navStart.tid && e.ph === "X" && e.dur);
+  const tasks = onMain.filter((e) => e.name === "RunTask" && e.ts >= navStart.ts);
+  const kinds: Record<string, string> = {
+    EvaluateScript: "script", "v8.compile": "compile", "v8.compileModule": "compile", "v8.evaluateModule": "script", FunctionCall: "script", TimerFire: "script", EventDispatch: "script",
+    FireAnimationFrame: "script", RunMicrotasks: "script", "V8.GC_SCAVENGER": "gc", MajorGC: "gc", MinorGC: "gc", ParseHTML: "parse HTML", UpdateLayoutTree: "style", Layout: "layout",
+    PrePaint: "paint", Paint: "paint", "Layerize": "paint", UpdateLayer: "paint", CompositeLayers: "paint", HitTest: "other",
+  };
+  const by: Record<string, [number, number]> = {};
+  const cut = navStart.ts + untilMs * 1000;
+  for (const t of tasks) {
+    // the children of the task: events inside it, the outermost of each kind only
+    const inside = onMain.filter((e) => e !== t && e.ts >= t.ts && e.ts + e.dur! <= t.ts + t.dur! && kinds[e.name]);
+    const outer = inside.filter((e) => !inside.some((o) => o !== e && kinds[o.name] && o.ts <= e.ts && o.ts + o.dur! >= e.ts + e.dur! && (o.ts < e.ts || o.dur! > e.dur!)));
+    let known = 0;
+    for (const e of outer) {
+      const k = kinds[e.name];
+      by[k] ??= [0, 0];
+      by[k][e.ts < cut ? 0 : 1] += e.dur! / 1000;
+      known += e.dur! / 1000;
+    }
+    by["other"] ??= [0, 0];
+    by["other"][t.ts < cut ? 0 : 1] += Math.max(0, t.dur! / 1000 - known);
+  }
+  console.log(`\n  main thread of the first opening by kind of work (ms), before the keystroke's answer (${untilMs.toFixed(0)} ms) / after it:`);
+  for (const [k, [a, b]] of Object.entries(by).sort((x, y) => y[1][0] - x[1][0])) console.log(`    ${k.padEnd(12)} ${a.toFixed(0).padStart(6)} / ${b.toFixed(0)}`);
+  console.log("  its longest tasks (start, length, what is in them):");
+  for (const t of [...tasks].sort((a, b) => b.dur! - a.dur!).slice(0, 8)) {
+    const inside = onMain.filter((e) => e !== t && e.ts >= t.ts && e.ts + e.dur! <= t.ts + t.dur! && kinds[e.name]);
+    const sum: Record<string, number> = {};
+    for (const e of inside) sum[e.name] = (sum[e.name] ?? 0) + e.dur! / 1000;
+    const what = Object.entries(sum).sort((a, b) => b[1] - a[1]).slice(0, 4).map(([n, ms]) => `${n} ${ms.toFixed(0)}`).join(", ");
+    console.log(`    ${((t.ts - navStart.ts) / 1000).toFixed(0).padStart(6)} ms  ${(t.dur! / 1000).toFixed(0).padStart(5)} ms  ${what}`);
+  }
 }
 
 /**
@@ -157,28 +223,76 @@ function printHeaviest(profile: { nodes: { id: number; callFrame: { functionName
 async function firstInteraction(browser: Browser, baseUrl: string, storageState: Awaited<ReturnType<BrowserContext["storageState"]>>, id: string, runs: number) {
   const plot: number[] = [];
   const key: number[] = [];
+  const longest: number[] = [];
+  const longestBeforeKey: number[] = [];
+  const plotlyAt: number[] = [];
+  let timeline = "";
   for (let i = 0; i < runs; i++) {
     const context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1280, height: 800 }, storageState });
+    // every main-thread task over 50 ms from the first script on (run by the browser before the page's own)
+    await context.addInitScript(LONG_TASKS_IN_PAGE);
     const page = await context.newPage();
+    const cdp = PROFILE && i === 0 ? await context.newCDPSession(page) : null;
+    if (cdp) {
+      await cdp.send("Profiler.enable");
+      await cdp.send("Profiler.setSamplingInterval", { interval: 200 });
+      await cdp.send("Profiler.start");
+    }
+    if (TRACE && i === 0) await browser.startTracing(page, { categories: ["devtools.timeline", "disabled-by-default-devtools.timeline", "v8.execute", "blink.user_timing"] });
     await page.goto(`/chains/${id}`, { waitUntil: "commit" });
     await page.getByTestId("card-g3").locator("div.truncate").first().click();
     const field = page.locator("#f-rf");
     await field.click();
-    await page.keyboard.press("End");
+    // a digit in front: "1k" becomes "21k", a new value (a digit after it, "1k0", reads as the same 1 kΩ)
+    await page.keyboard.press("Home");
     const before = (await page.evaluate(`performance.getEntriesByType("mark").filter((m) => m.name.startsWith("cw:edit:")).length`)) as number;
-    await page.keyboard.type("0");
-    const answered = (await page.waitForFunction(
-      `(() => { const m = performance.getEntriesByType("mark").filter((m) => m.name.startsWith("cw:edit:")); return m.length > ${before} ? m[m.length - 1].startTime : 0; })()`,
-      null,
-      { timeout: 60_000, polling: 5 },
-    )).jsonValue() as Promise<number>;
-    key.push(await answered);
-    const first = (await page.waitForFunction(`performance.getEntriesByType("mark").find((m) => m.name.startsWith("cw:plot:"))?.startTime ?? 0`, null, { timeout: 60_000, polling: 5 })).jsonValue() as Promise<number>;
-    plot.push(await first);
+    await page.keyboard.type("2");
+    key.push(await waitInPage<number>(page, `(() => { const m = performance.getEntriesByType("mark").filter((m) => m.name.startsWith("cw:edit:")); return m.length > ${before} ? m[m.length - 1].startTime : 0; })()`));
+    plot.push(await waitInPage<number>(page, `performance.getEntriesByType("mark").find((m) => m.name.startsWith("cw:plot:"))?.startTime ?? 0`));
+    if (TRACE && i === 0) {
+      const trace = await browser.stopTracing();
+      mkdirSync(ARTIFACTS, { recursive: true });
+      writeFileSync(path.join(ARTIFACTS, "bench-ui-open.trace.json"), trace);
+      printTraceKinds(JSON.parse(trace.toString()), key[0]);
+    }
+    if (cdp) {
+      const { profile } = await cdp.send("Profiler.stop");
+      mkdirSync(ARTIFACTS, { recursive: true });
+      writeFileSync(path.join(ARTIFACTS, "bench-ui-open.cpuprofile"), JSON.stringify(profile));
+      printHeaviest(profile, "opening the chain, until the keystroke's answer and the first plot");
+    }
+    // the window the long tasks are read over: until LONG_TASK_WINDOW_MS after navigation start
+    await waitInPage(page, `performance.now() > ${LONG_TASK_WINDOW_MS}`);
+    const tasks = (await page.evaluate("window.__cwLongTasks")) as [number, number][];
+    longest.push(Math.max(0, ...tasks.map(([, d]) => d)));
+    longestBeforeKey.push(Math.max(0, ...tasks.filter(([t]) => t < key[key.length - 1]).map(([, d]) => d)));
+    if (i === 0) timeline = (await page.evaluate(TIMELINE_IN_PAGE)) as string;
+    const ready = (await page.evaluate(`performance.getEntriesByName("cw:plotly-ready", "mark")[0]?.startTime ?? -1`)) as number;
+    if (ready >= 0) plotlyAt.push(ready);
     await context.close();
   }
-  return { plot: stats(plot), key: stats(key) };
+  return { plot: stats(plot), key: stats(key), longest: stats(longest), longestBeforeKey: stats(longestBeforeKey), plotlyAt: plotlyAt.length ? stats(plotlyAt) : null, timeline };
 }
+
+/** Long tasks are read over the first seconds of a page (a window, not a wait: the page has no "done"). */
+const LONG_TASK_WINDOW_MS = 6000;
+const LONG_TASKS_IN_PAGE = `window.__cwLongTasks = [];
+new PerformanceObserver((list) => { for (const e of list.getEntries()) window.__cwLongTasks.push([e.startTime, e.duration]); }).observe({ type: "longtask", buffered: true });
+window.__cwInput = [];
+for (const type of ["pointerdown", "keydown"]) addEventListener(type, (e) => window.__cwInput.push([type, e.timeStamp, performance.now()]), true);`;
+
+/** Where the first opening's time went: page milestones and the test's input, in ms since navigation start. */
+const TIMELINE_IN_PAGE = `(() => {
+  const nav = performance.getEntriesByType("navigation")[0];
+  const paint = performance.getEntriesByName("first-contentful-paint")[0];
+  const mark = (prefix) => performance.getEntriesByType("mark").find((m) => m.name.startsWith(prefix))?.startTime;
+  const out = [["response end", nav?.responseEnd], ["DOM content loaded", nav?.domContentLoadedEventEnd], ["first contentful paint", paint?.startTime],
+    ["first analysis back", mark("cw:live:")], ["first plot", mark("cw:plot:")]];
+  for (const [type, at, handled] of window.__cwInput) out.push([type + " (handled " + (handled - at).toFixed(0) + " ms later)", at]);
+  const edits = performance.getEntriesByType("mark").filter((m) => m.name.startsWith("cw:edit:"));
+  out.push(["keystroke answered", edits[edits.length - 1]?.startTime], ["plotting library ready", mark("cw:plotly-ready")]);
+  return out.filter(([, t]) => t !== undefined).sort((a, b) => a[1] - b[1]).map(([what, t]) => t.toFixed(0).padStart(6) + " ms  " + what).join("\\n");
+})()`;
 
 async function main() {
   const server = await startE2EServer(ARTIFACTS);
@@ -203,7 +317,7 @@ async function main() {
     await page.getByTestId("workspace").waitFor();
     await page.getByTestId("card-g3").locator("div.truncate").first().click();
     await page.locator("#f-rf").waitFor();
-    await page.waitForFunction(`performance.getEntriesByType("mark").some((m) => m.name.startsWith("cw:plot:"))`, null, { timeout: 60_000 });
+    await waitInPage(page, `performance.getEntriesByType("mark").some((m) => m.name.startsWith("cw:plot:"))`);
     const workers = page.workers().length;
     await page.screenshot({ path: path.join(ARTIFACTS, "bench-ui-chain.png") });
 
@@ -212,6 +326,10 @@ async function main() {
     console.log(`\nOpening the 10-stage chain, new browser context each time (${first.plot.n} runs), from navigation start:`);
     console.log(`  first plot drawn                 median ${fms(first.plot.median)}   max ${fms(first.plot.max)}   (target < 1 s: ${first.plot.max < 1000 ? "met" : "NOT met"})`);
     console.log(`  keystroke in a value field done  median ${fms(first.key.median)}   max ${fms(first.key.max)}   (target < 1 s: ${first.key.max < 1000 ? "met" : "NOT met"})`);
+    console.log(`  longest main-thread task before the keystroke's answer  median ${fms(first.longestBeforeKey.median)}   max ${fms(first.longestBeforeKey.max)}`);
+    console.log(`  longest main-thread task in the first ${LONG_TASK_WINDOW_MS / 1000} s             median ${fms(first.longest.median)}   max ${fms(first.longest.max)}`);
+    console.log(first.plotlyAt ? `  plotting library ready (${first.plotlyAt.n} of ${first.plot.n} runs)   median ${fms(first.plotlyAt.median)}   max ${fms(first.plotlyAt.max)}` : `  plotting library not loaded in the first ${LONG_TASK_WINDOW_MS / 1000} s (no run)`);
+    console.log(`  the first run, in ms from navigation start:\n${first.timeline.replace(/^/gm, "    ")}`);
     if (FIRST_ONLY) {
       await context.close();
       return;
