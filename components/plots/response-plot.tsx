@@ -9,8 +9,9 @@ import { useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/edit
 import type { PlotMode } from "@/lib/store/editor-store";
 import { pathTo } from "@/lib/store/graph";
 import { buildFigure, figureMarks, figureShape, hoverIndex, plotCsv, plotLegend, plotMarkers, plotSeries, readoutAt, type Figure, type PlotInput } from "./plot-data";
-import { loadPlotly, type PlotlyLike } from "./plotly-loader";
+import { loadPlotlyWhenWanted, type PlotlyLike } from "./plotly-loader";
 import { drawCurvesDirectly } from "./direct-draw";
+import { figureSvg } from "./svg-figure";
 
 /** How long after the last direct redraw Plotly redraws the figure itself (its hover and zoom state). */
 const CATCH_UP_MS = 250;
@@ -49,6 +50,10 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
   const actions = useEditorActions();
   const { target, following } = useTarget();
   const el = useRef<HTMLDivElement>(null);
+  const sectionRef = useRef<HTMLElement>(null);
+  // the figure drawn as plain SVG until Plotly has loaded and drawn it (svg-figure.ts)
+  const svgEl = useRef<HTMLDivElement>(null);
+  const [drawnBy, setDrawnBy] = useState<"none" | "svg" | "plotly">("none");
   const plotly = useRef<PlotlyLike | null>(null);
   const [ready, setReady] = useState(false);
   const [loadError, setLoadError] = useState<string | null>(null);
@@ -109,14 +114,20 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
   useEffect(() => {
     const node = el.current;
     if (!node || typeof ResizeObserver === "undefined") return;
-    const watch = new ResizeObserver((entries) => (widthRef.current = entries[0]?.contentRect.width ?? 0));
+    const watch = new ResizeObserver((entries) => {
+      const box = entries[0]?.contentRect;
+      widthRef.current = box?.width ?? 0;
+      // the SVG has a fixed size: drawn again at the new one (Plotly resizes itself)
+      if (box && svgEl.current?.firstChild && figRef.current) svgEl.current.innerHTML = figureSvg(figRef.current, box.width, box.height);
+    });
     watch.observe(node);
     return () => watch.disconnect();
   }, []);
 
   useEffect(() => {
     let gone = false;
-    loadPlotly().then(
+    const stop = loadPlotlyWhenWanted(
+      sectionRef.current!,
       (p) => {
         if (gone) return;
         plotly.current = p;
@@ -127,6 +138,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
     const node = el.current;
     return () => {
       gone = true;
+      stop();
       if (catchUpRef.current) clearTimeout(catchUpRef.current);
       if (node && plotly.current) plotly.current.purge(node);
     };
@@ -136,7 +148,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
   useLayoutEffect(() => {
     const node = el.current;
     const p = plotly.current;
-    if (!ready || !node || !p || !input) return;
+    if (!node || !input) return;
     if (!visible) {
       shapeRef.current = "";
       return;
@@ -144,6 +156,17 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
     pointsRef.current = input.curves.f.length;
     const rev = store.getState().live?.rev;
     performance.mark(`cw:plot-start:${rev}`);
+    if (!ready || !p) {
+      // Plotly not loaded yet: the whole figure as SVG, under where Plotly will draw
+      const box = node.getBoundingClientRect();
+      widthRef.current ||= box.width;
+      const fig = buildFigure(series, markers, input.curves.f, widthRef.current || undefined);
+      figRef.current = fig;
+      if (svgEl.current) svgEl.current.innerHTML = figureSvg(fig, box.width, box.height);
+      setDrawnBy("svg");
+      performance.mark(`cw:plot:${rev}`);
+      return;
+    }
     const fig = buildFigure(series, markers, input.curves.f, widthRef.current || undefined);
     figRef.current = fig;
     const shape = figureShape(fig);
@@ -170,6 +193,13 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
       catchUpRef.current = null;
       behindRef.current = false;
       drawn = p.react(node, fig.data, fig.layout, PLOT_CONFIG);
+      if (svgEl.current?.firstChild) {
+        // Plotly's first drawing covers the SVG; then the SVG goes
+        void drawn.then(() => {
+          if (svgEl.current) svgEl.current.innerHTML = "";
+          setDrawnBy("plotly");
+        });
+      }
     }
     shapeRef.current = shape;
     marksRef.current = marks;
@@ -214,7 +244,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
   };
 
   return (
-    <section className="flex h-full min-h-0 flex-col" aria-label="Response" data-testid="response-plot">
+    <section ref={sectionRef} className="flex h-full min-h-0 flex-col" aria-label="Response" data-testid="response-plot">
       <div className="flex flex-wrap items-center gap-x-3 gap-y-1 border-b border-paper-rule px-3 py-1.5 text-[12px]">
         <div role="radiogroup" aria-label="Curves" className="flex overflow-hidden rounded-card border border-paper-rule">
           {(["cumulative", "individual"] as PlotMode[]).map((m) => (
@@ -267,15 +297,20 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
           ))}
         </ul>
         <span className="num min-w-0 flex-1 truncate text-graphite-700" aria-live="off" data-testid="plot-readout">
-          {readout ? `${readout.f}: ${readout.items.map((r) => `${r.id} ${r.db} ${r.ph}`).join(" · ")}` : "point for values; drag to zoom, double-click to reset"}
+          {readout
+            ? `${readout.f}: ${readout.items.map((r) => `${r.id} ${r.db} ${r.ph}`).join(" · ")}`
+            : loadError && drawnBy === "svg"
+              ? `a still drawing: the plot's readout and zoom could not load (${loadError})`
+              : "point for values; drag to zoom, double-click to reset"}
         </span>
         <button type="button" onClick={exportCsv} disabled={!input} className="rounded-card border border-paper-rule bg-paper-raised px-2 py-0.5 text-graphite-900 hover:bg-paper-sunk disabled:opacity-50">
           Export CSV
         </button>
       </div>
       <div className="relative min-h-0 flex-1">
-        <div ref={el} className="absolute inset-0" data-testid="plot-area" data-ready={ready && input ? "1" : "0"} />
-        {(!input || !ready) && (
+        <div ref={svgEl} className="absolute inset-0" data-testid="plot-svg" aria-hidden={drawnBy !== "svg"} />
+        <div ref={el} className="absolute inset-0" data-testid="plot-area" data-ready={ready && input ? "1" : "0"} data-drawn={input ? drawnBy : "none"} />
+        {(!input || (!ready && drawnBy === "none")) && (
           <p className="absolute inset-0 flex items-center justify-center p-4 text-center text-[13px] text-graphite-500">
             {loadError
               ? `The plot could not load (${loadError}).`

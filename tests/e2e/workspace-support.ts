@@ -60,9 +60,15 @@ export async function waitForSaveState(page: Page, state: string, timeout = 15_0
   await expect.poll(() => page.getByTestId("save-state").getAttribute("data-state"), { timeout }).toBe(state);
 }
 
-/** The plot has drawn at least one line (a flat line has no height, so this checks its path data; Plotly
- * draws a straight line with two points only). */
+/**
+ * Plotly has drawn at least one line (a flat line has no height, so this checks its path data; Plotly
+ * draws a straight line with two points only). The workspace draws its first figures as plain SVG and
+ * loads Plotly when the pointer reaches the plot (or after a spell without input), so this points at the
+ * plot's toolbar first, as someone wanting the readout would, when the plot is on screen.
+ */
 export async function waitForPlot(page: Page): Promise<void> {
+  const plot = page.getByTestId("response-plot");
+  if (await plot.isVisible()) await plot.hover({ position: { x: 4, y: 4 } });
   await expect
     .poll(
       () =>
@@ -72,6 +78,11 @@ export async function waitForPlot(page: Page): Promise<void> {
       { timeout: 30_000 },
     )
     .toBe(true);
+}
+
+/** The first figure is on screen, drawn either as SVG (before Plotly has loaded) or by Plotly. */
+export async function waitForFirstPlot(page: Page): Promise<void> {
+  await expect.poll(() => page.getByTestId("plot-area").getAttribute("data-drawn"), { timeout: 30_000 }).toMatch(/^(svg|plotly)$/);
 }
 
 /** Drag from the right handle of one card to the left handle of another, as a person connects them. */
