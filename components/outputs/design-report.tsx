@@ -13,6 +13,7 @@ import {
   defaultTestFrequencies,
   headroomRows,
   pathCurves,
+  reportSpread,
   safetyCalls,
   signalOrder,
   withSpread,
@@ -27,6 +28,7 @@ import { ChainCards } from "./chain-cards";
 import { ReportPlots } from "./report-plots";
 import { BringUpTable } from "./bring-up-table";
 import { ReportTable, td, tdText } from "./report-table";
+import { SpreadSummaryView } from "./spread-summary";
 
 export interface ReviewLine {
   reviewer: string;
@@ -75,6 +77,7 @@ export function DesignReport(p: ReportProps) {
   const scalings = buildFirmwareScaling(chain, result);
   const cautions = safetyCalls(chain);
   const curves = pathCurves(chain, result);
+  const spread = reportSpread(chain);
   const names = new Map(chain.nodes.map((n) => [n.id, n.label ? `${n.id} ${n.label}` : n.id]));
   return (
     <article className="design-report mx-auto max-w-[52rem] bg-white text-[12.5px] leading-snug text-graphite-900" data-paper={p.paper} data-testid="design-report">
@@ -173,6 +176,14 @@ export function DesignReport(p: ReportProps) {
             </div>
           );
         })}
+      </Section>
+
+      <Section title="Spread from tolerances" id="r-spread">
+        {spread.ok ? (
+          <SpreadSummaryView summary={spread.summary} names={names} />
+        ) : (
+          <p data-testid="report-spread">The spread over the part tolerances could not be run on this chain: {spread.reason}.</p>
+        )}
       </Section>
 
       <Section title="Warnings" id="r-warnings">

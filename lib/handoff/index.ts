@@ -1,6 +1,6 @@
 /**
  * Hand-offs built from a complete chain and its engine result: bill of materials, bring-up sheet,
- * firmware scaling, CSV of each. Pure (no React, no I/O); the routes and pages only serve them.
+ * firmware scaling, CSV of each, the spread summary of the design report. Pure (no React, no I/O); the routes and pages only serve them.
  */
 export { buildBom, seriesForTolerance } from "./bom";
 export type { Bom, BomGroup, BomLine, OpAmpGroup } from "./bom";
@@ -17,3 +17,5 @@ export { headroomRows, marginOf } from "./headroom";
 export type { HeadroomRow } from "./headroom";
 export { pathCurves, safetyCalls } from "./report";
 export type { CurveSet } from "./report";
+export { REPORT_SPREAD, REPORT_TOP_PARTS, reportSpread, spreadSummary } from "./spread-summary";
+export type { FigureSpread, SpreadSummary, StageSpread } from "./spread-summary";
