@@ -8,6 +8,13 @@
  * integrator, MFB; +1 non-inverting) maps c → s·g·c + (1 − s·g)·vref [the DC forms of chain-format.md:
  * inverting −(r2/r1)(Vin − vref) + vref, non-inverting (1 + rf/rg)Vin − (rf/rg)vref], d → g·d, a → g·a.
  * Sallen-Key and RC low-pass sections pass all three; an RC high-pass sets c to its vbias and d to 0.
+ * The front-end stages add their reference at unity instead: an instrumentation or difference amplifier
+ * (gain g = 1 + 2·rf/rg or r2/r1, sign +1) maps the differential c → g·c + vref [chain-format additions,
+ * lib/chain/README.md]; a transimpedance stage (fixed here) c → −rf·c + (1 + rf/rsh)·vref, rsh the
+ * sensor's shunt from (−) to ground, and a charge amplifier (fixed) passes no charge at DC:
+ * c → (1 + rf/rsh)·vref, d → 0, a → a/cf.
+ * An in-amp's gain is also capped by its input stage: those outputs sit at vcm ± g·Vd/2 and must keep to
+ * the same window as the stage's output.
  * Every stage's window is its usable output (rails less the part's swing) shrunk by the margin (a share of
  * its span) on each side; the converter's window is its input range shrunk the same way.
  *
@@ -27,6 +34,7 @@ import type { AnalysisResult, Chain, ChainNode, OpAmpNode, StageResult } from ".
 import { analyzeChain } from "./analyze";
 import { solveStage, type SolvableKind, type SolvedParams } from "./solve";
 import { idealCharacteristics, sallenKeyGain } from "./ideal";
+import { nearestPreferred, neighbours } from "../units/eseries";
 
 /** Sections that block DC: the output's DC level is their vbias / vref, whatever comes in. */
 const DC_BLOCKING = new Set(["rcHighpass", "sallenKeyHighpass", "mfbHighpass"]);
@@ -93,10 +101,16 @@ export interface GainAdvice {
   rounds: number;
 }
 
-type GainNode = Extract<ChainNode, { kind: "inverting" | "noninverting" | "lossyIntegrator" | "mfbLowpass" }>;
-const GAIN_KINDS = new Set(["inverting", "noninverting", "lossyIntegrator", "mfbLowpass"]);
+type GainNode = Extract<ChainNode, { kind: "inverting" | "noninverting" | "lossyIntegrator" | "mfbLowpass" | "inAmp" | "differenceAmp" }>;
+const GAIN_KINDS = new Set(["inverting", "noninverting", "lossyIntegrator", "mfbLowpass", "inAmp", "differenceAmp"]);
 const isGainNode = (n: ChainNode): n is GainNode => GAIN_KINDS.has(n.kind);
-const signOf = (n: GainNode) => (n.kind === "noninverting" ? 1 : -1);
+/** Stages whose reference reaches the output at unity (a reference pin), not through the gain network. */
+const REF_AT_UNITY = new Set(["inAmp", "differenceAmp"]);
+const signOf = (n: GainNode) => (n.kind === "noninverting" || REF_AT_UNITY.has(n.kind) ? 1 : -1);
+/** k in the DC form c → s·g·c + k·vref */
+const refCoefficient = (n: GainNode, g: number) => (REF_AT_UNITY.has(n.kind) ? 1 : 1 - signOf(n) * g);
+/** stages whose gain cannot go below 1 (a follower at most) */
+const atLeastUnity = (n: GainNode) => n.kind === "noninverting" || n.kind === "inAmp";
 
 function stageGain(n: ChainNode): number | null {
   switch (n.kind) {
@@ -111,6 +125,14 @@ function stageGain(n: ChainNode): number | null {
       return sallenKeyGain(n.params); // passband K = 1 + rf/rg
     case "mfbHighpass":
       return -n.params.c1 / n.params.c2; // H(∞)
+    case "inAmp":
+      return 1 + (2 * n.params.rf) / n.params.rg;
+    case "differenceAmp":
+      return n.params.r2 / n.params.r1;
+    case "transimpedance":
+      return -n.params.rf; // V/A
+    case "chargeAmp":
+      return -1 / n.params.cf; // V/C above its low corner
     case "source":
     case "adc":
       return null;
@@ -227,6 +249,11 @@ function plan(
       } else if (n.kind === "sallenKeyHighpass" || n.kind === "mfbHighpass") {
         c = n.params.vref;
         d = 0;
+      } else if (n.kind === "transimpedance" || n.kind === "chargeAmp") {
+        // vref reaches the output through the noise gain 1 + rf/rsh (the sensor's shunt from (−) to ground)
+        const refGain = 1 + (src.shunt ? n.params.rf / src.shunt.r : 0);
+        c = (n.kind === "transimpedance" ? -n.params.rf * c : 0) + refGain * n.params.vref;
+        d = n.kind === "transimpedance" ? d * n.params.rf : 0;
       }
       if (n.kind === "rcHighpass") {
         c = n.params.vbias;
@@ -265,9 +292,13 @@ function plan(
     let g = need;
     let cOut = 0;
     let vref = (n.params as { vref: number }).vref;
+    // an in-amp's input stage: vcm ± g·Vd/2 inside the stage's own window
+    const own = squeezeW(shrink(usable.lo, usable.hi, margin), i);
+    const vcm = src.vcm;
+    const gInner = n.kind === "inAmp" ? (2 * Math.max(0, Math.min(vcm - own.lo, own.hi - vcm))) / (Math.abs(c) + d + a) : Infinity;
     for (let round = 0; round < 4; round++) {
       // where the output centre can go with vref inside the rails
-      const k = 1 - s * g;
+      const k = refCoefficient(n, g);
       const ends = [s * g * c + k * vr.low, s * g * c + k * vr.high];
       const reachLo = Math.min(...ends);
       const reachHi = Math.max(...ends);
@@ -275,17 +306,17 @@ function plan(
       cOut = Math.abs(k) < 1e-12 ? c : Math.min(reachHi, Math.max(reachLo, Math.min(target.hi, Math.max(target.lo, wantMid))));
       vref = Math.abs(k) < 1e-12 ? vref : (cOut - s * g * c) / k;
       const room = Math.min(cOut - target.lo, target.hi - cOut);
-      const gMax = room > 0 ? room / (d + a) : 0;
+      const gMax = room > 0 ? Math.min(room / (d + a), gInner) : 0;
       let next = Math.min(need, gMax);
-      if (n.kind === "noninverting") next = Math.max(1, next);
+      if (atLeastUnity(n)) next = Math.max(1, next);
       if (Math.abs(next - g) <= 1e-12 * g) break;
       g = next;
     }
     if (g < need * (1 - 1e-9)) binding = n.label ?? n.id;
     // g is the gain the signal must see in place; the stage's own gain makes up for the loss measured there
     // (source resistance or a section loading its input, band edges) in the previous round
-    const own = g / loss[i];
-    steps.push({ index: i, gain: n.kind === "noninverting" ? Math.max(1, own) : own, vref });
+    const inPlace = g / loss[i];
+    steps.push({ index: i, gain: atLeastUnity(n) ? Math.max(1, inPlace) : inPlace, vref });
     c = cOut;
     d *= g;
     a *= g;
@@ -298,6 +329,11 @@ function realise(n: GainNode, gain: number): SolvedParams | null {
   const now = Math.abs(stageGain(n) as number);
   if (Math.abs(gain / now - 1) < 5e-3) return {}; // close enough: keep the present values
   if (n.kind === "noninverting" && Math.abs(gain - 1) < 5e-3) return { rf: null, rg: null };
+  // in-amp: rf is the input stage's fixed pair, rg sets the gain; difference amp: r1, r3 (the input
+  // resistance) stay, r2 and r4 scale together so the pair stays matched
+  // (rg rounds up: a gain a little under the plan leaves the margin whole, one over it eats into it)
+  if (n.kind === "inAmp") return { rg: neighbours((2 * n.params.rf) / Math.max(gain - 1, 1e-3), "E96").above };
+  if (n.kind === "differenceAmp") return { r2: nearestPreferred(gain * n.params.r1, "E96"), r4: nearestPreferred(gain * n.params.r3, "E96") };
   const ideal = idealCharacteristics(n);
   const caps = Object.entries(n.params).filter(([k]) => k.startsWith("c")).map(([, v]) => v as number);
   const r = solveStage(n.kind as SolvableKind, {
@@ -382,7 +418,7 @@ export function adviseGainStaging(chain: Chain, opts: AdviceOptions = {}): GainA
     );
   }
   if (!nodes.some(isGainNode)) {
-    return { adcId, path, margin, targetRangeUse, current, advised: current, edits: [], chain, notes, problem: "No stage on this path has an adjustable gain (inverting, non-inverting, lossy integrator or MFB).", rounds: 0 };
+    return { adcId, path, margin, targetRangeUse, current, advised: current, edits: [], chain, notes, problem: "No stage on this path has an adjustable gain (inverting, non-inverting, lossy integrator, MFB low-pass, instrumentation or difference amplifier).", rounds: 0 };
   }
 
   const squeeze: number[] = path.map(() => 0);

@@ -7,6 +7,7 @@ import { describe, expect, it } from "vitest";
 import { findTemplate } from "@/lib/templates";
 import { validateChain } from "@/lib/chain/schema";
 import { analyzeChain } from "@/lib/engine";
+import { adviseGainStaging } from "@/lib/engine/gain-staging";
 import type { Chain } from "@/lib/chain/types";
 
 function chainWithRg(rg?: number): Chain {
@@ -52,6 +53,23 @@ describe("load-cell template", () => {
     expect(codes).toContain("rail-clip");
     expect(codes).toContain("inamp-common-mode");
     expect(r.paths[0].stages.find((s) => s.id === "u1")!.status).toBe("clip");
+  });
+});
+
+describe("load-cell template with the gain plan", () => {
+  it("from too little or too much in-amp gain, the plan reaches most of the range with every stage ok", () => {
+    // the advisor's own target (70 % range use, 10 % margins) checked by an independent engine run
+    for (const rg of [1000, 412, 270, 50]) {
+      const a = adviseGainStaging(chainWithRg(rg));
+      expect(a.problem, `rg ${rg}`).toBeNull();
+      expect(a.edits.some((e) => e.id === "u1" && "rg" in e.params), `rg ${rg}`).toBe(true);
+      const r = analyzeChain(a.chain);
+      const path = r.paths[0];
+      for (const st of path.stages) expect(st.status, `rg ${rg}: ${st.id}`).toBe("ok");
+      expect(path.adc!.status).toBe("ok");
+      expect(path.adc!.rangeUse!).toBeGreaterThanOrEqual(0.7);
+      expect(r.warnings.filter((w) => ["rail-clip", "adc-range", "inamp-common-mode", "input-range"].includes(w.code))).toEqual([]);
+    }
   });
 });
 
