@@ -10,6 +10,8 @@ import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useEditor } from "@/lib/store/editor-context";
 import { MAX_SAMPLES, type Stimulus, type WaveformRun } from "@/lib/engine/time-domain";
+import { OUTPUT_UNIT, sourceSignal } from "@/lib/engine/sensors";
+import { isSourceKind } from "@/lib/chain/types";
 import { problemText, type CsvResult, type WaveformData } from "@/lib/waveform-csv";
 import { loadPlotly, type PlotlyLike } from "@/components/plots/plotly-loader";
 import type { WaveformRequest, WaveformResponse } from "./waveform-protocol";
@@ -73,8 +75,10 @@ export function WaveformPanel({ chainId, visible }: { chainId: string | null; vi
   const chain = useEditor((s) => s.live?.chain ?? null);
   const readOnly = useEditor((s) => s.readOnly);
   const ask = useWorker();
-  const src = chain?.nodes.find((n) => n.kind === "source");
-  const sp = src?.kind === "source" ? src.params : null;
+  // any source kind: its output (volts, differential volts, amperes or coulombs) is what the stimulus drives
+  const src = chain?.nodes.find((n) => isSourceKind(n.kind));
+  const sp = useMemo(() => (src ? sourceSignal(src) : null), [src]);
+  const unit = sp ? OUTPUT_UNIT[sp.output] : "V";
   const [kind, setKind] = useState<Kind>("step");
   const [amplitude, setAmplitude] = useState<number | null>(null);
   const [frequency, setFrequency] = useState<number | null>(null);
@@ -235,8 +239,8 @@ export function WaveformPanel({ chainId, visible }: { chainId: string | null; vi
         {kind !== "recording" ? (
           <>
             <label className="flex flex-col gap-0.5">
-              <span className="text-graphite-500">Amplitude (V)</span>
-              <input aria-label="Amplitude (V)" type="number" step="any" className={field} value={amp} onChange={(e) => setAmplitude(Number(e.target.value))} />
+              <span className="text-graphite-500">Amplitude ({unit})</span>
+              <input aria-label={`Amplitude (${unit})`} type="number" step="any" className={field} value={amp} onChange={(e) => setAmplitude(Number(e.target.value))} />
             </label>
             {kind === "burst" && (
               <label className="flex flex-col gap-0.5">

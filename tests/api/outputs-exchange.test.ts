@@ -122,7 +122,7 @@ describe("hand-off downloads", () => {
     const w = world();
     signInAs(w.engineer);
     const r = await (await get(plotGet, w.hull, "?table=response")).text();
-    expect(r.split("\r\n")[0]).toMatch(/^frequency_Hz,AC coupling to mid-rail \(ac\) magnitude_dB/);
+    expect(r.split("\r\n")[0]).toMatch(/^frequency_Hz,Charge amplifier \(ca\) magnitude_dB/);
     expect(r.trim().split("\r\n")).toHaveLength(1 + hullVibration.analysis.points);
     const n = await (await get(plotGet, w.hull, "?table=noise")).text();
     expect(n.split("\r\n")[0]).toBe("frequency_Hz,adc noise_density_V_per_rtHz");
@@ -147,7 +147,7 @@ describe("chain exchange", () => {
     const text = await res.text();
     const preview = await post({ document: text, teamId: w.teamId, preview: true });
     expect(preview.status).toBe(200);
-    expect((await preview.json()).preview).toMatchObject({ name: hullVibration.name, nodes: 5, edges: 4, complete: true, incomplete: [] });
+    expect((await preview.json()).preview).toMatchObject({ name: hullVibration.name, nodes: hullVibration.nodes.length, edges: hullVibration.edges.length, complete: true, incomplete: [] });
     const created = await post({ document: text, teamId: w.teamId });
     expect(created.status).toBe(201);
     const id = (await created.json()).chain.id as string;
@@ -170,10 +170,10 @@ describe("chain exchange", () => {
   });
 
   const bad: [string, unknown, string][] = [
-    ["a negative resistor", { ...turbidityPhotodiode, nodes: turbidityPhotodiode.nodes.map((n) => (n.id === "inv" ? { ...n, params: { ...n.params, r1: -1 } } : n)) }, "document.nodes[1].params.r1"],
+    ["a negative resistor", { ...turbidityPhotodiode, nodes: turbidityPhotodiode.nodes.map((n) => (n.id === "tia" ? { ...n, params: { ...n.params, rf: -1 } } : n)) }, "document.nodes[1].params.rf"],
     ["an unknown field", { ...hullVibration, colour: "red" }, "document.colour"],
     ["a later format", { ...hullVibration, format: "chainwright.chain/9" }, "document.format"],
-    ["an edge to nowhere", { ...hullVibration, edges: [...hullVibration.edges, { from: "aa", to: "ghost" }] }, "document.edges[4].to"],
+    ["an edge to nowhere", { ...hullVibration, edges: [...hullVibration.edges, { from: "aa", to: "ghost" }] }, `document.edges[${hullVibration.edges.length}].to`],
     ["no name", { ...hullVibration, name: "" }, "document.name"],
     ["a bad sensitivity", { ...hullVibration, nodes: hullVibration.nodes.map((n, i) => (i === 0 ? { ...n, params: { ...n.params, sensitivity: 0 } } : n)) }, "document.nodes[0].params.sensitivity"],
     ["text that is not JSON", "{ not json", "document"],

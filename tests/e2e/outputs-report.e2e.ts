@@ -77,12 +77,12 @@ describe.skipIf(ctx.skip !== null)("hand-offs: outputs page, printed design repo
     await page.getByRole("link", { name: "Import a chain file" }).click();
     await page.waitForURL(/\/chains\/import$/);
     const broken = structuredClone(doc);
-    broken.nodes[1].params.r1 = -10;
+    broken.nodes[1].params.rf = -10; // the TIA's feedback resistor
     await page.locator("#import-text").fill(JSON.stringify(broken));
     await page.getByRole("button", { name: /^Check/ }).click();
     const errors = page.getByTestId("import-errors");
     await errors.waitFor();
-    await expect(errors.textContent()).resolves.toContain("document.nodes[1].params.r1");
+    await expect(errors.textContent()).resolves.toContain("document.nodes[1].params.rf");
     await expect(page.getByRole("button", { name: "Import as a new chain" }).isDisabled()).resolves.toBe(true);
 
     const copy = { ...doc, name: `Imported turbidity ${Date.now()}` };

@@ -24,10 +24,12 @@ describe.skipIf(ctx.skip !== null)("the Waveforms tab (production build)", () =>
     await waitForPlot(page);
     await page.getByRole("tab", { name: "Waveforms" }).click();
     const panel = page.getByTestId("waveform-panel");
-    await panel.getByLabel("Amplitude (V)").fill("1.5");
+    // the hull accelerometer is a charge source: the step is in coulombs (−1.5 nC lifts the inverting
+    // charge amplifier's output by 1.5 V, which the ×2 stage takes past its upper swing)
+    await panel.getByLabel("Amplitude (C)").fill("-1.5e-9");
     await panel.getByTestId("waveform-run").click();
     await page.getByTestId("waveform-summary").waitFor({ timeout: 20_000 });
-    // one stacked row per trace: EMF, source output, coupling, gain, anti-alias
+    // one stacked row per trace: the sensor's charge, charge amplifier, gain, anti-alias
     await page.waitForFunction(() => document.querySelectorAll('[data-testid="waveform-plot"] .gl-container, [data-testid="waveform-plot"] .main-svg').length > 0, null, { timeout: 20_000 });
     const rows = await page.locator('[data-testid="waveform-plot"] .main-svg .yaxislayer-above').count();
     expect(rows).toBeGreaterThanOrEqual(1);

@@ -26,13 +26,31 @@ describe("demo chain documents", () => {
     expect(result.ok ? [] : result.errors).toEqual([]);
   });
 
-  it("the ballast chain's gain stage clips at DC: 12 mV ± 3 mV bridge offset × 500 is beyond the ±5 V rails", () => {
+  it("the ballast chain's in-amp clips at DC: a 10 mV ± 3 mV bridge output × 500 is at and beyond the +5 V rail", () => {
     const valid = validateChain(ballastPressure);
     if (!valid.ok) throw new Error("invalid demo chain");
-    const stage = analyzeChain(valid.chain).paths[0].stages.find((s) => s.id === "gain")!;
+    const result = analyzeChain(valid.chain);
+    const stage = result.paths[0].stages.find((s) => s.id === "gain")!;
     expect(stage.status).toBe("clip");
-    // derived from the non-inverting gain 1 + rf/rg = 500 on a DC input of at least 9 mV (less offsets)
-    expect(stage.dcOut!.min).toBeGreaterThan(4);
+    // derived from the in-amp gain 1 + 2·rf/rg = 500 on the bridge's DC (2 mV/V · 10 V at half load = 10 mV)
+    // less its ±3 mV zero balance: at least 3.5 V before the signal, and the top of the DC interval
+    // (6.5 V) is beyond the usable 4.98 V on its own
+    expect(stage.dcOut!.min).toBeGreaterThan(3.4);
+    expect(stage.dcOut!.max).toBeGreaterThan(4.98);
+    // the in-amp's input stage runs out of swing too (vcm 0 ± 500·23 mV/2)
+    expect(result.warnings.some((w) => w.nodeId === "gain" && w.code === "inamp-common-mode")).toBe(true);
+  });
+
+  it("the hull and turbidity chains clip nowhere, and their sensor checks are quiet", () => {
+    for (const doc of [hullVibration, turbidityPhotodiode]) {
+      const valid = validateChain(doc);
+      if (!valid.ok) throw new Error("invalid demo chain");
+      const result = analyzeChain(valid.chain);
+      for (const st of result.paths[0].stages) if (st.status) expect(st.status, `${doc.name} ${st.id}`).toBe("ok");
+      expect(result.paths[0].adc!.status).toBe("ok");
+      const codes = result.warnings.map((w) => w.code);
+      for (const code of ["rail-clip", "rail-tight", "adc-range", "tia-stability", "tia-bandwidth", "charge-corner", "input-range"]) expect(codes, doc.name).not.toContain(code);
+    }
   });
 });
 

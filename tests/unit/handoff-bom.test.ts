@@ -12,7 +12,7 @@ describe("buildBom on the demo chains", () => {
     const { hull } = demo();
     const bom = buildBom(hull);
     expect(bom.lines.map((l) => `${l.ref}=${l.nodeId}.${l.param}`)).toEqual([
-      "C1=ac.c", "R1=ac.r", "R2=gain.rf", "R3=gain.rg", "R4=aa.r1", "R5=aa.r2", "C2=aa.c1", "C3=aa.c2",
+      "C1=ca.cf", "R1=ca.rf", "R2=gain.rf", "R3=gain.rg", "R4=aa.r1", "R5=aa.r2", "C2=aa.c1", "C3=aa.c2",
     ]);
     // values straight from the document
     for (const l of bom.lines) {
@@ -22,22 +22,24 @@ describe("buildBom on the demo chains", () => {
     }
   });
 
-  it("leaves out the source's resistance, the converter's input and voltage params", () => {
+  it("leaves out the sensor's own shunt and capacitance, the converter's input and voltage params", () => {
     const { turbidity } = demo();
     const bom = buildBom(turbidity);
     expect(bom.lines.some((l) => l.nodeId === "pd" || l.nodeId === "adc")).toBe(false);
     expect(bom.lines.some((l) => l.param === "vref")).toBe(false);
-    // inv r1 r2, mfb r1 r2 r3 c1 c2, rc r c
-    expect(bom.lines.filter((l) => l.type === "resistor")).toHaveLength(6);
-    expect(bom.lines.filter((l) => l.type === "capacitor")).toHaveLength(3);
+    // tia rf cf (its cin is the op-amp's, no part), mfb r1 r2 r3 c1 c2, rc r c
+    expect(bom.lines.some((l) => l.param === "cin")).toBe(false);
+    expect(bom.lines.filter((l) => l.type === "resistor")).toHaveLength(5);
+    expect(bom.lines.filter((l) => l.type === "capacitor")).toHaveLength(4);
   });
 
   it("groups equal values, counting each designator once", () => {
     const { turbidity } = demo();
     const bom = buildBom(turbidity);
     const tenK = bom.groups.find((g) => g.type === "resistor" && g.value === 10e3)!;
-    expect(tenK.refs).toEqual(["R1", "R3", "R4", "R5"]);
-    expect(tenK.quantity).toBe(4);
+    // R1 is the TIA's 800k; the MFB's three 10k follow
+    expect(tenK.refs).toEqual(["R2", "R3", "R4"]);
+    expect(tenK.quantity).toBe(3);
     expect(bom.groups.reduce((n, g) => n + g.quantity, 0)).toBe(bom.lines.length);
     const all = bom.groups.flatMap((g) => g.refs).sort();
     expect(all).toEqual(bom.lines.map((l) => l.ref).sort());
@@ -46,11 +48,11 @@ describe("buildBom on the demo chains", () => {
   it("groups op-amps by part model with U designators", () => {
     const { hull, turbidity } = demo();
     expect(buildBom(hull).opAmps).toEqual([
-      expect.objectContaining({ part: "cmos", refs: ["U1", "U2"], quantity: 2 }),
+      expect.objectContaining({ part: "cmos", refs: ["U1", "U2", "U3"], quantity: 3 }),
     ]);
     const t = buildBom(turbidity).opAmps;
-    expect(t.map((g) => [g.part, g.refs])).toEqual([["ln", ["U1"]], ["gp", ["U2"]]]);
-    expect(t[0].model).toContain("Low-noise bipolar");
+    expect(t.map((g) => [g.part, g.refs])).toEqual([["cmos", ["U1"]], ["gp", ["U2"]]]);
+    expect(t[0].model).toContain("Precision CMOS");
   });
 
   it("a stage with no model is listed as an ideal op-amp, not dropped", () => {
@@ -59,7 +61,7 @@ describe("buildBom on the demo chains", () => {
     for (const n of copy.nodes) if ("part" in n) n.part = null;
     const g = buildBom(copy).opAmps;
     expect(g).toHaveLength(1);
-    expect(g[0]).toMatchObject({ part: null, quantity: 2 });
+    expect(g[0]).toMatchObject({ part: null, quantity: 3 });
     expect(g[0].model).toMatch(/ideal/);
   });
 

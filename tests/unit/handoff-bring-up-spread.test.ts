@@ -11,23 +11,23 @@ import { bringUpSpread, withSpread } from "@/lib/handoff/bring-up-spread";
 import { demo } from "./handoff-support";
 
 describe("bringUpSpread", () => {
-  it("AC at the hull's coupling node stays between the corners of s·r·c/(1 + s·(r + rs)·c) and nears them", () => {
+  it("AC at the hull's charge amplifier stays between the corners of −s·rf/(1 + s·rf·cf) and nears them", () => {
     const { hull } = demo();
     const f = 2;
     const sheet = buildBringUpSheet(hull, analyzeChain(hull), [f]);
     const s = bringUpSpread(hull, sheet, 400, 7);
-    const r = s.points.find((p) => p.nodeId === "ac")!.amplitude[0]!;
-    // |H| rises with r·c below the corner, so the corners are r·c at (1 − 1 %)(1 − 5 %) and (1 + 1 %)(1 + 5 %)
+    const r = s.points.find((p) => p.nodeId === "ca")!.amplitude[0]!;
+    // |H| = ω·rf/√(1 + (ω·rf·cf)²) per coulomb (the charge amplifier's closed form) rises with rf and falls
+    // with cf, so the corners are rf (1 ∓ 1 %) with cf (1 ± 5 %). The op-amp's finite gain moves |H| by
+    // about 1e-5 of itself, hence the small allowance.
+    const { rf, cf } = hull.nodes.find((n) => n.id === "ca")!.params as { rf: number; cf: number };
+    const q = (hull.nodes[0].params as { amplitude: number }).amplitude;
     const w = 2 * Math.PI * f;
-    const amp = (rf: number, cf: number) => {
-      const rr = 100e3 * rf;
-      const cc = 1e-6 * cf;
-      return (0.5 * w * rr * cc) / Math.hypot(1, w * (rr + 100) * cc);
-    };
-    const lo = amp(0.99, 0.95);
-    const hi = amp(1.01, 1.05);
-    expect(r.min).toBeGreaterThanOrEqual(lo - 1e-12);
-    expect(r.max).toBeLessThanOrEqual(hi + 1e-12);
+    const amp = (kr: number, kc: number) => (q * w * rf * kr) / Math.hypot(1, w * rf * kr * cf * kc);
+    const lo = amp(0.99, 1.05);
+    const hi = amp(1.01, 0.95);
+    expect(r.min).toBeGreaterThanOrEqual(lo * (1 - 1e-4));
+    expect(r.max).toBeLessThanOrEqual(hi * (1 + 1e-4));
     expect(r.max - r.min).toBeGreaterThan(0.8 * (hi - lo));
     expect(s.parts).toBe(8);
   });
@@ -47,13 +47,16 @@ describe("bringUpSpread", () => {
     });
   });
 
-  it("the gain stage's DC nominal moves with r2/(r1 + rs) within its corners", () => {
+  it("the TIA's DC nominal moves with rf within its corners", () => {
     const { turbidity } = demo();
     const sheet = buildBringUpSheet(turbidity, analyzeChain(turbidity), []);
-    const r = bringUpSpread(turbidity, sheet, 400, 11).points.find((p) => p.nodeId === "inv")!.dcNominal!;
-    // −0.5·r2/(r1 + 1 kΩ): most negative at r2 high, r1 low (1 %); the part's finite gain moves it < 1e-4
-    const most = (-0.5 * 20e3 * 1.01) / (10e3 * 0.99 + 1e3);
-    const least = (-0.5 * 20e3 * 0.99) / (10e3 * 1.01 + 1e3);
+    const r = bringUpSpread(turbidity, sheet, 400, 11).points.find((p) => p.nodeId === "tia")!.dcNominal!;
+    // −rf·(light + dark current) (the transimpedance formula, vref 0): most negative at rf + 1 %; the
+    // part's finite gain moves it by about 1e-6 of itself
+    const pd = turbidity.nodes.find((n) => n.id === "pd")!.params as { dc: number; darkCurrent: number };
+    const rf = (turbidity.nodes.find((n) => n.id === "tia")!.params as { rf: number }).rf;
+    const most = -rf * 1.01 * (pd.dc + pd.darkCurrent);
+    const least = -rf * 0.99 * (pd.dc + pd.darkCurrent);
     expect(r.min).toBeGreaterThan(most - 1e-4);
     expect(r.max).toBeLessThan(least + 1e-4);
     expect(r.max - r.min).toBeGreaterThan(0.7 * (least - most));

@@ -11,9 +11,9 @@ describe("buildBringUpSheet", () => {
   it("has a test point for every stage output and the converter input, in signal order", () => {
     const { chain, result } = analysed(demo().hull);
     const sheet = buildBringUpSheet(chain, result, [100]);
-    expect(sheet.points.map((p) => `${p.tp}:${p.nodeId}`)).toEqual(["TP1:ac", "TP2:gain", "TP3:aa", "TP4:adc"]);
+    expect(sheet.points.map((p) => `${p.tp}:${p.nodeId}`)).toEqual(["TP1:ca", "TP2:gain", "TP3:aa", "TP4:adc"]);
     expect(sheet.points[3].where).toMatch(/input pin of converter/);
-    expect(sheet.sourceAmplitude).toBe(0.5);
+    expect(sheet.sourceAmplitude).toBe((chain.nodes[0].params as { amplitude: number }).amplitude);
   });
 
   it("takes the DC interval from the engine's operating point, nominal at its middle", () => {
@@ -29,26 +29,34 @@ describe("buildBringUpSheet", () => {
     }
   });
 
-  it("DC nominal of the turbidity gain stage matches −dc·r2/(r1 + source resistance)", () => {
+  it("DC nominal of the turbidity TIA matches −rf·(light + dark current) + vref·(1 + rf/rsh)", () => {
     const { chain, result } = analysed(demo().turbidity);
-    const tp = buildBringUpSheet(chain, result, []).points.find((p) => p.nodeId === "inv")!;
-    // derived from the inverting-amplifier formula with the 1 kΩ source in series with r1; the finite
-    // open-loop gain of the demo part moves it by well under 1e-4
-    expect(tp.dcNominal!).toBeCloseTo((-0.5 * 20e3) / (10e3 + 1e3), 4);
+    const tp = buildBringUpSheet(chain, result, []).points.find((p) => p.nodeId === "tia")!;
+    // derived from the transimpedance formula Vo = −rf·I with vref on (+) seen through the noise gain
+    // 1 + rf/rsh (the photodiode's shunt from (−) to ground); the demo part's finite open-loop gain
+    // (1e6) moves it by about 1e-6 of itself. The ± terms (offset, bias current) are symmetric about it.
+    const pd = chain.nodes.find((n) => n.id === "pd")!.params as { dc: number; darkCurrent: number; shuntResistance: number };
+    const tia = chain.nodes.find((n) => n.id === "tia")!.params as { rf: number; vref: number };
+    const want = -tia.rf * (pd.dc + pd.darkCurrent) + tia.vref * (1 + tia.rf / pd.shuntResistance);
+    expect(Math.abs(tp.dcNominal! / want - 1)).toBeLessThan(1e-5);
     expect(tp.status).toBe("ok");
   });
 
-  it("AC at the AC-coupling node matches s·r·c/(1 + s·(r + rs)·c) worked by hand", () => {
+  it("AC at the charge amplifier matches −s·rf/(1 + s·rf·cf) worked by hand", () => {
     const { chain, result } = analysed(demo().hull);
     const f = 2;
     const tp = buildBringUpSheet(chain, result, [f]).points[0];
+    // the charge amplifier's closed form (lib/chain/README.md, "Sensor sources and front-end stages"),
+    // per coulomb of sensor charge; the piezo's own capacitance and leakage sit at the virtual ground and
+    // only enter through the op-amp's finite gain (noise gain 1 + C/cf = 2 against A(2 Hz) ≈ 5e5)
+    const { rf, cf } = chain.nodes.find((n) => n.id === "ca")!.params as { rf: number; cf: number };
+    const q = (chain.nodes[0].params as { amplitude: number }).amplitude;
     const w = 2 * Math.PI * f;
-    const a = w * 100e3 * 1e-6;
-    const b = w * (100e3 + 100) * 1e-6;
-    const gain = a / Math.hypot(1, b);
-    expect(tp.ac[0].gain!).toBeCloseTo(gain, 9);
-    expect(tp.ac[0].amplitude!).toBeCloseTo(0.5 * gain, 9);
-    expect(tp.ac[0].phaseDeg!).toBeCloseTo(90 - (Math.atan(b) * 180) / Math.PI, 6);
+    const gain = (w * rf) / Math.hypot(1, w * rf * cf);
+    expect(Math.abs(tp.ac[0].gain! / gain - 1)).toBeLessThan(1e-4);
+    expect(Math.abs(tp.ac[0].amplitude! / (q * gain) - 1)).toBeLessThan(1e-4);
+    // −j·ω·rf/(1 + j·ω·rf·cf): −90° less the pole's atan(ω·rf·cf)
+    expect(tp.ac[0].phaseDeg!).toBeCloseTo(-90 - (Math.atan(w * rf * cf) * 180) / Math.PI, 2);
   });
 
   it("the converter's AC figures equal the engine's path response at the same frequencies", () => {

@@ -21,10 +21,11 @@ describe("hand-off CSV", () => {
       expect(Number(rows[k].value)).toBe(l.value);
       expect(Number(rows[k].nearest_standard)).toBe(l.standard);
     });
-    expect(rows[1].value_text).toBe("20.0 kΩ");
+    expect(rows[0].value_text).toBe("800 kΩ"); // the TIA's rf
+    expect(rows[1].value_text).toBe("470 pF"); // and its cf
     expect(rows.filter((r) => r.type === "op-amp").map((r) => r.ref)).toEqual(["U1", "U2"]);
     const groups = read(bomGroupsCsv(bom));
-    expect(groups.find((g) => g.value === "10000")!.refs).toBe("R1 R3 R4 R5");
+    expect(groups.find((g) => g.value === "10000")!.refs).toBe("R2 R3 R4");
   });
 
   it("escapes a stage label that starts like a formula", () => {

@@ -20,20 +20,36 @@ function scalingOf(chain: Chain): FirmwareScaling {
   return r.scaling;
 }
 
-/** Converter input for a source EMF held at `v` volts DC, from a fresh engine run. */
+/**
+ * The params that hold a source's output at `v` DC in its own unit (volts, differential volts,
+ * amperes), with no spread: a photodiode without dark current, a bridge at one load (its DC is the
+ * middle of loadLow…loadHigh, Vd = excitation·fullScale·load) and no zero-balance spread.
+ */
+function dcParams(chain: Chain, sourceId: string, v: number): Record<string, unknown> {
+  const n = chain.nodes.find((x) => x.id === sourceId)!;
+  if (n.kind === "photodiode") return { dc: v, dcSpread: 0, darkCurrent: 0 };
+  if (n.kind === "bridge") {
+    const load = v / (n.params.excitation * n.params.fullScale);
+    return { loadLow: load - 1e-3, loadHigh: load + 1e-3, offset: 0 };
+  }
+  return { dc: v, dcSpread: 0 };
+}
+
+/** Converter input for a source output held at `v` DC, from a fresh engine run. */
 function adcVoltsForDc(chain: Chain, sourceId: string, v: number): number {
-  const result = analyzeChain(withParams(chain, sourceId, { dc: v, dcSpread: 0 }));
+  const result = analyzeChain(withParams(chain, sourceId, dcParams(chain, sourceId, v)));
   return nominalOf(result.paths[0].adc!.dcIn as { min: number; max: number })!;
 }
 
 describe("DC-coupled paths round-trip a known input within half an LSB", () => {
   const cases: [string, string, number[]][] = [
-    ["turbidity", "pd", [0.05, 0.31, 0.5, 0.777, 1.2]],
+    // photodiode currents (A): 0.8 V/µA puts 0…3.1 µA on the 0–2.5 V converter
+    ["turbidity", "pd", [0.1e-6, 0.62e-6, 1e-6, 1.554e-6, 2.4e-6]],
     ["ballast", "bridge", [-0.006, 0, 0.0012345, 0.004, 0.008]],
   ];
   for (const [name, src, inputs] of cases) {
     it(`${name}: every input comes back within LSB/(2·|gain|)`, () => {
-      const chain = demo()[name as "turbidity" | "ballast"];
+      const chain = withParams(demo()[name as "turbidity" | "ballast"], src, dcParams(demo()[name as "turbidity" | "ballast"], src, 0));
       const s = scalingOf(chain);
       expect(s.coupling).toBe("dc");
       const halfLsbAtInput = s.adc.lsb / (2 * Math.abs(s.gain));
@@ -48,34 +64,36 @@ describe("DC-coupled paths round-trip a known input within half an LSB", () => {
   }
 
   it("the round trip fails when the reconstruction is off by one code (the check can fail)", () => {
-    const chain = demo().turbidity;
+    const chain = withParams(demo().turbidity, "pd", { darkCurrent: 0 });
     const s = scalingOf(chain);
-    const v = 0.5;
+    const v = 1e-6;
     const volts = adcVoltsForDc(chain, "pd", v);
     expect(Math.abs(sourceVoltsOf(s, codeOf(s, volts) + 1) - v)).toBeGreaterThan(s.adc.lsb / (2 * Math.abs(s.gain)));
   });
 
   it("converts to the measurand's unit with the declared sensitivity", () => {
-    const chain = withParams(demo().turbidity, "pd", { sensitivity: 0.01, unit: "NTU" });
+    // 10 nA of scattered light per NTU (an invented figure for the test)
+    const chain = withParams(demo().turbidity, "pd", { sensitivity: 1e-8, unit: "NTU", darkCurrent: 0 });
     const s = scalingOf(chain);
-    expect(s.measurand).toMatchObject({ unit: "NTU", sensitivity: 0.01 });
+    expect(s.measurand).toMatchObject({ unit: "NTU", sensitivity: 1e-8 });
     for (const ntu of [5, 31, 77.7]) {
-      const volts = adcVoltsForDc(chain, "pd", ntu * 0.01);
+      const volts = adcVoltsForDc(chain, "pd", ntu * 1e-8);
       const back = measurandOf(s, codeOf(s, volts))!;
-      expect(Math.abs(back - ntu)).toBeLessThanOrEqual((s.adc.lsb / (2 * Math.abs(s.gain) * 0.01)) * (1 + 1e-9));
+      expect(Math.abs(back - ntu)).toBeLessThanOrEqual((s.adc.lsb / (2 * Math.abs(s.gain) * 1e-8)) * (1 + 1e-9));
     }
     expect(scalingOf(demo().turbidity).measurand).toBeNull();
   });
 
   it("gain, zero-input code and sign match the circuit worked by hand", () => {
     const t = scalingOf(demo().turbidity);
-    // −r2/(r1 + rs) · (−r2/r1 of the MFB = −1) · 1: 20k/11k, moved under 1e-4 by the parts' finite gain
-    expect(t.gain).toBeCloseTo(20 / 11, 4);
+    // −rf of the TIA (V/A) · (−r2/r1 of the MFB = −1) · 1 (the RC into a converter that draws nothing):
+    // +800 kΩ, moved by about 1e-6 of itself by the parts' finite gain and the photodiode's 200 MΩ shunt
+    expect(Math.abs(t.gain / 800e3 - 1)).toBeLessThan(1e-4);
     expect(t.gain).toBe(analyzeChain(demo().turbidity).paths[0].adc!.pathDcGain);
     expect(t.zeroInputVolts).toBeCloseTo(0, 9);
     expect(t.zeroInputCode).toBe(0);
     const b = scalingOf(demo().ballast);
-    // ×500 then the lossy integrator's −r2/r1 = −1
+    // in-amp 1 + 2·24.95k/100 = 500, then the lossy integrator's −r2/r1 = −1
     expect(b.gain).toBeCloseTo(-500, -1);
     expect(b.gainPhaseDeg).toBe(180);
     expect(b.zeroInputCode).toBe(32768); // 0 V on a ±4.096 V, 16-bit range
@@ -88,14 +106,16 @@ describe("AC-coupled path (hull vibration)", () => {
     const s = scalingOf(chain);
     expect(s.coupling).toBe("ac");
     expect(s.scalingFrequency).toBeCloseTo(Math.sqrt(2 * 2000), 9);
-    // resting level: the 2.5 V bias; 2.5 V / (5 V / 4096) = code 2048
-    expect(s.zeroInputCode).toBe(2048);
+    // resting level: the charge amplifier passes no DC from the sensor; its vref sits at its output through
+    // the noise gain 1 + rf/leakage, the ×2 stage (rg to its own vref) gives 2·that − vref:
+    // 2·2.5·(1 + 1 GΩ/100 GΩ) − 2.5 = 2.55 V, and 2.55 V / (5 V / 4096) = 2088.96 → code 2089
+    expect(s.zeroInputCode).toBe(2089);
     const [resp] = [analyzeChain(chain, { freqs: [s.scalingFrequency] }).paths[0].response];
     const mag = 10 ** (resp.magDb[0]! / 20);
     const phase = (resp.phaseDeg[0]! * Math.PI) / 180;
-    expect(Math.abs(s.gain)).toBeCloseTo(mag, 9);
+    expect(Math.abs(Math.abs(s.gain) / mag - 1)).toBeLessThan(1e-9); // V per coulomb: compared relative
     const w = 2 * Math.PI * s.scalingFrequency;
-    const amp = 0.5;
+    const amp = (chain.nodes[0].params as { amplitude: number }).amplitude;
     for (let k = 0; k < 40; k++) {
       const t = k / (40 * s.scalingFrequency);
       const volts = s.zeroInputVolts + amp * mag * Math.cos(w * t + phase);
@@ -158,7 +178,7 @@ describe("C header", () => {
   });
 
   it.skipIf(!gcc)("compiles, and its functions give the same values as the JSON constants", () => {
-    const s = scalingOf(withParams(demo().turbidity, "pd", { sensitivity: 0.01, unit: "NTU" }));
+    const s = scalingOf(withParams(demo().turbidity, "pd", { sensitivity: 1e-8, unit: "NTU" }));
     const dir = mkdtempSync(join(tmpdir(), "cw-header-"));
     writeFileSync(join(dir, "scaling.h"), scalingHeader([s], 2));
     writeFileSync(

@@ -32,11 +32,11 @@ describe("keyResults", () => {
 });
 
 describe("diffKeyResults", () => {
-  it("is empty for the same chain and names the DC gain change when a gain resistor changes", () => {
+  it("is empty for the same chain and names the DC gain change when the gain resistor changes", () => {
     expect(diffKeyResults(keyResults(ballastPressure), keyResults(ballastPressure))).toEqual([]);
     const lower = clone(ballastPressure) as unknown as { nodes: Array<{ kind: string; params: Record<string, number> }> };
-    const stage = lower.nodes.find((n) => n.kind === "noninverting")!;
-    stage.params.rf = stage.params.rf / 10;
+    const stage = lower.nodes.find((n) => n.kind === "inAmp")!;
+    stage.params.rg = stage.params.rg * 10;
     const changes = diffKeyResults(keyResults(ballastPressure), keyResults(lower));
     const gain = changes.find((c) => c.figure === "DC gain");
     expect(gain).toBeDefined();
