@@ -15,6 +15,7 @@
 import type { AnySourceNode, Chain, ChainNode, Safety } from "../chain/types";
 import { DIFFERENTIAL_SOURCE_KINDS, CURRENT_SOURCE_KINDS, isSourceKind } from "../chain/types";
 import { TWO_PI } from "./constants";
+import { bandGrid, bandMax } from "./grids";
 
 /** What a source's output is: the unit of dc, amplitude and of the emf transfer's denominator. */
 export type SourceOutput = "voltage" | "differential" | "current" | "charge";
@@ -202,7 +203,8 @@ export interface TiaStability {
  * Loop of a transimpedance stage with the single-pole op-amp A(s) = aol/(1 + s·aol/ωt): feedback factor
  * β(s) = Zs/(Zs + Zf), Zs = Rsh ∥ 1/(s·Cin), Zf = Rf ∥ 1/(s·Cf); the loop gain is A·β and the noise gain
  * 1/β. Phase margin = 180° + ∠(A·β) at |A·β| = 1, found by bisection in log f (|A·β| falls through 1 once for
- * these networks). Peaking: the largest |1/(1 + 1/(A·β))| over a log grid, against its value at DC.
+ * these networks). Peaking: the largest |1/(1 + 1/(A·β))| (dense log grid refined by golden-section
+ * search, as the band peaks), against its value at 1 mHz (the DC value).
  * The suggested Cf is the common design rule Cf = √(Cin/(2π·Rf·GBW)) (it puts the noise-gain zero at the
  * geometric mean of 1/(2π·Rf·Cin) and GBW, giving roughly 45° or more; a rule of thumb).
  */
@@ -258,8 +260,10 @@ export function tiaStability(
     return 1 / Math.hypot(1 + invR, invI);
   };
   const ref = shape(1e-3);
-  let peak = ref;
-  for (let e = -3; e <= Math.log10(gbw * 10); e += 0.01) peak = Math.max(peak, shape(10 ** e));
+  // the dense band grid refined around its best sample, as every other peak: a fixed 0.01-decade grid
+  // missed a sharp peak (0.05 dB at Q ≈ 80, more as Q grows; found by tests/reference/hidden-sensor-cases)
+  const grid = bandGrid(1e-3, gbw * 10);
+  const peak = Math.max(ref, bandMax(grid, Array.from(grid, shape), shape).value);
   return { cin, crossover: fc, phaseMarginDeg: pm > 180 ? pm - 360 : pm, peakingDb: 20 * Math.log10(peak / ref), suggestedCf };
 }
 
