@@ -17,5 +17,8 @@ export default defineConfig({
     maxWorkers: 1,
     testTimeout: 90_000,
     hookTimeout: 120_000,
+    // expect.poll waits for a state (a card's status, a save, a review state); vitest's default of 1 s is
+    // shorter than a server round trip or an analysis takes on a loaded machine
+    expect: { poll: { timeout: 15_000 } },
   },
 });

@@ -57,13 +57,13 @@ describe.skipIf(ctx.skip !== null)("review by invitation, from draft to approved
     const chainId = await copyOfDemoChain(eng.page, chainName);
     await eng.page.goto(`/chains/${chainId}`);
     await eng.page.getByTestId("workspace").waitFor();
-    await expect(eng.page.getByTestId("review-state").first().getAttribute("data-state")).resolves.toBe("draft");
+    await expect.poll(() => eng.page.getByTestId("review-state").first().getAttribute("data-state")).toBe("draft");
     await openTab(eng.page, "Share");
     await eng.page.getByLabel("E-mail address").fill(reviewerEmail);
     await eng.page.locator("#invite-role").selectOption("reviewer");
     await eng.page.getByRole("button", { name: "Send invitation" }).click();
     await eng.page.getByTestId("share-done").waitFor();
-    await expect(eng.page.getByTestId("pending-invitations").textContent()).resolves.toContain(reviewerEmail);
+    await expect.poll(() => eng.page.getByTestId("pending-invitations").textContent()).toContain(reviewerEmail);
     await screenshot(eng.page, "team-share-invited");
 
     // The reviewer follows the link from the mailbox page and signs up through it.
@@ -164,11 +164,11 @@ describe.skipIf(ctx.skip !== null)("review by invitation, from draft to approved
     await typeInto(eng.page, "f-rf", "33k");
     await waitForSaveState(eng.page, "saved");
     await eng.page.getByTestId("back-to-draft").waitFor();
-    await expect(eng.page.getByTestId("review-state").first().getAttribute("data-state")).resolves.toBe("draft");
+    await expect.poll(() => eng.page.getByTestId("review-state").first().getAttribute("data-state")).toBe("draft");
     await expect(card(eng.page, "gain").count()).resolves.toBe(1);
     // leave the demo team's chain list as the other browser tests expect it
     expect((await eng.page.request.delete(`/api/chains/${chainId}`)).status()).toBe(200);
     await rev.context.close();
     await eng.context.close();
-  });
+  }, 240_000); // the whole review, a dozen server round trips and mails: more than the default on a loaded machine
 });

@@ -138,7 +138,8 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
     await pressOnCanvas(page, "1");
     await pressOnCanvas(page, "2"); // non-inverting gain after the source
     await card(page, "u1").waitFor();
-    await expect(card(page, "u1").textContent()).resolves.toMatch(/needs rails/);
+    // the card shows the analysis's word once it is back (the card itself comes first)
+    await expect.poll(() => card(page, "u1").textContent()).toMatch(/needs rails/);
     await selectCard(page, "u1");
     await typeInto(page, "f-rails-low", "-12");
     await typeInto(page, "f-rails-high", "12");
