@@ -234,15 +234,45 @@ export function startAnalysis(store: EditorStore, runners: { quick: TierRunner; 
  * workers everything runs in this thread.
  */
 export function startBrowserAnalysis(store: EditorStore): AnalysisDriver {
-  let quick: TierRunner;
-  let full: TierRunner;
-  try {
-    const worker = workerRunner(new Worker(new URL("./analysis.worker.ts", import.meta.url), { type: "module", name: "cw-quick" }));
-    quick = adaptiveRunner(inlineRunner(), worker);
-    full = workerRunner(new Worker(new URL("./analysis.worker.ts", import.meta.url), { type: "module", name: "cw-full" }));
-  } catch {
-    quick = inlineRunner();
-    full = inlineRunner();
-  }
+  const quick = adaptiveRunner(inlineRunner(), lazyRunner(() => new Worker(new URL("./analysis.worker.ts", import.meta.url), { type: "module", name: "cw-quick" })));
+  const full = lazyRunner(() => new Worker(new URL("./analysis.worker.ts", import.meta.url), { type: "module", name: "cw-full" }), { firstWhenIdle: true });
   return startAnalysis(store, { quick, full });
+}
+
+/**
+ * A worker runner whose worker starts with its first request, not before: a worker loads and compiles the
+ * engine, work that competes with the page's own while a chain opens (the quick tier's worker is not
+ * started at all while the quick tier stays in this thread). `firstWhenIdle`: the first request also
+ * waits for the browser's idle time, so the full tier's first run does not fall into the page's first
+ * rendering. Without module workers the requests run in this thread.
+ */
+export function lazyRunner(make: () => Worker, opts: { firstWhenIdle?: boolean } = {}): TierRunner {
+  let runner: TierRunner | null = null;
+  let first: Promise<void> | null = null;
+  let disposed = false;
+  const idle = () =>
+    new Promise<void>((resolve) => {
+      if (typeof requestIdleCallback === "function") requestIdleCallback(() => resolve(), { timeout: 1500 });
+      else setTimeout(resolve, 0);
+    });
+  const start = (): TierRunner => {
+    if (runner) return runner;
+    try {
+      runner = workerRunner(make());
+    } catch {
+      runner = inlineRunner();
+    }
+    return runner;
+  };
+  return {
+    run: async (req) => {
+      if (opts.firstWhenIdle && !runner) await (first ??= idle());
+      if (disposed) return new Promise(() => {}); // stopped while waiting: no answer is wanted
+      return start().run(req);
+    },
+    dispose: () => {
+      disposed = true;
+      runner?.dispose();
+    },
+  };
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it, vi } from "vitest";
-import { adaptiveRunner, inlineRunner, sameAnalysisInput, startAnalysis, type TierRunner } from "@/lib/store/analysis-driver";
+import { adaptiveRunner, inlineRunner, lazyRunner, sameAnalysisInput, startAnalysis, type TierRunner } from "@/lib/store/analysis-driver";
 import { createEditorStore } from "@/lib/store/editor-store";
 import { findTemplate } from "@/lib/templates";
 import type { AnalysisRequest } from "@/lib/store/analysis-protocol";
@@ -95,6 +95,70 @@ describe("adaptiveRunner", () => {
     expect(strict.runNow!({ tier: "quick", seq: 3, doc })).toBeUndefined(); // then the worker's
     await strict.run({ tier: "quick", seq: 4, doc });
     expect(worker.calls.map((c) => c.seq)).toEqual([4]);
+  });
+});
+
+describe("lazyRunner", () => {
+  /** A stand-in worker that answers every request with the inline computation, and counts what it got. */
+  function fakeWorker(log: string[]) {
+    const inner = inlineRunner();
+    const w = {
+      onmessage: null as ((e: MessageEvent) => void) | null,
+      onerror: null as unknown,
+      postMessage(req: AnalysisRequest) {
+        log.push(`post ${req.seq}`);
+        void inner.run(req).then((data) => w.onmessage?.({ data } as MessageEvent));
+      },
+      terminate: () => log.push("terminate"),
+    };
+    return w as unknown as Worker;
+  }
+
+  it("starts its worker with the first request, not before, and only once", async () => {
+    const doc = findTemplate("ballast-bridge")!.make();
+    const log: string[] = [];
+    const runner = lazyRunner(() => (log.push("start"), fakeWorker(log)));
+    await settle();
+    expect(log).toEqual([]);
+    const a = await runner.run({ tier: "quick", seq: 1, doc });
+    const b = await runner.run({ tier: "quick", seq: 2, doc });
+    expect([a.seq, b.seq]).toEqual([1, 2]);
+    expect(log).toEqual(["start", "post 1", "post 2"]);
+    runner.dispose();
+    expect(log.at(-1)).toBe("terminate");
+  });
+
+  it("holds the first request back until the browser is idle, when asked to", async () => {
+    const doc = findTemplate("ballast-bridge")!.make();
+    const log: string[] = [];
+    const idle: (() => void)[] = [];
+    vi.stubGlobal("requestIdleCallback", (fn: () => void) => (idle.push(fn), 1));
+    try {
+      const runner = lazyRunner(() => (log.push("start"), fakeWorker(log)), { firstWhenIdle: true });
+      const answer = runner.run({ tier: "full", seq: 7, doc });
+      await settle();
+      expect(log).toEqual([]); // still waiting for idle time
+      idle.forEach((fn) => fn());
+      expect((await answer).seq).toBe(7);
+      expect(log).toEqual(["start", "post 7"]);
+    } finally {
+      vi.unstubAllGlobals();
+    }
+  });
+
+  it("computes in this thread when no worker can be made, and starts none once disposed", async () => {
+    const doc = findTemplate("ballast-bridge")!.make();
+    const failing = lazyRunner(() => {
+      throw new Error("no module workers here");
+    });
+    const res = await failing.run({ tier: "quick", seq: 3, doc });
+    expect(res.tier === "quick" && res.quick.result).toBeTruthy();
+    const log: string[] = [];
+    const gone = lazyRunner(() => (log.push("start"), fakeWorker(log)));
+    gone.dispose();
+    void gone.run({ tier: "quick", seq: 4, doc });
+    await settle();
+    expect(log).toEqual([]);
   });
 });
 
