@@ -6,7 +6,9 @@
  */
 import type { StageResult } from "@/lib/chain/types";
 import { isSourceKind } from "@/lib/chain/types";
-import { useEditor } from "@/lib/store/editor-context";
+import type { TiaStability } from "@/lib/engine/sensors";
+import { neighbours } from "@/lib/units/eseries";
+import { useEditor, useEditorActions } from "@/lib/store/editor-context";
 import type { DraftNode } from "@/lib/store/draft";
 import { fmt, fmtDb, fmtGain, fmtVolts } from "./format";
 import { RailSpan } from "./rail-span";
@@ -45,6 +47,7 @@ export function StageNumbers({ node }: { node: DraftNode }) {
     <section className="flex flex-col gap-2 border-t border-paper-rule pt-2" data-testid="stage-numbers">
       <h3 className="text-[12px] font-semibold uppercase tracking-wide text-graphite-500">Figures</h3>
       {stage && <StageFigures stage={stage} railsOf={node.rails} />}
+      {stage && <LoopFigures node={node} stage={stage} unstable={!!warnings?.some((w) => w.code === "tia-stability")} />}
       {adc && (
         <dl className="grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 text-[12.5px]">
           <Row name="LSB">{fmt(adc.lsb, "volt")}</Row>
@@ -108,5 +111,46 @@ function StageFigures({ stage, railsOf }: { stage: StageResult; railsOf?: { low:
         )}
       </dl>
     </>
+  );
+}
+
+/**
+ * A transimpedance or charge amplifier's loop (the engine's noise-gain construction): phase margin, peaking
+ * and the feedback capacitor the common design rule suggests, rounded up to E12. When the stability check
+ * fires, one click sets cf to that value (an ordinary, undoable edit).
+ */
+function LoopFigures({ node, stage, unstable }: { node: DraftNode; stage: StageResult; unstable: boolean }) {
+  const readOnly = useEditor((s) => s.readOnly);
+  const actions = useEditorActions();
+  const stab = (stage as unknown as { stability?: TiaStability }).stability;
+  if (!stab) return null;
+  const suggested = stab.suggestedCf !== null && stab.suggestedCf > 0 ? neighbours(stab.suggestedCf, "E12").above : null;
+  const cf = typeof node.params.cf === "number" ? node.params.cf : 0;
+  return (
+    <dl className="grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 text-[12.5px]" data-testid="loop-figures">
+      <Row name="Phase margin" testId="fig-phase-margin">
+        {stab.phaseMarginDeg === null ? "— (ideal op-amp)" : `${stab.phaseMarginDeg.toFixed(1)}°`}
+      </Row>
+      {stab.peakingDb !== null && <Row name="Peaking" testId="fig-peaking">{`${stab.peakingDb.toFixed(1)} dB`}</Row>}
+      {stab.crossover !== null && <Row name="Loop crossover">{fmt(stab.crossover, "hertz")}</Row>}
+      <Row name="Input capacitance">{fmt(stab.cin, "farad")}</Row>
+      {suggested !== null && (
+        <Row name="Suggested cf" testId="fig-suggested-cf">
+          {fmt(suggested, "farad")}
+        </Row>
+      )}
+      {unstable && suggested !== null && suggested > cf && !readOnly && (
+        <div className="col-span-2 mt-1">
+          <button
+            type="button"
+            data-testid="use-suggested-cf"
+            onClick={() => actions.setParam(node.id, "cf", suggested)}
+            className="rounded-card border border-paper-rule bg-paper-raised px-2 py-0.5 text-[12px] hover:bg-paper-sunk"
+          >
+            Set cf to {fmt(suggested, "farad")}
+          </button>
+        </div>
+      )}
+    </dl>
   );
 }
