@@ -18,6 +18,12 @@ const WORDS: Record<string, { title: string; severity: Severity }> = {
   alias: { title: "Weak alias rejection", severity: "tight" },
   pole: { title: "No finite value", severity: "tight" },
   "part-zero-gain": { title: "Model without gain", severity: "tight" },
+  // sensor front ends (issue 14): the in-amp's inner nodes clip like an output; a loop with little phase
+  // margin rings or oscillates, which matters as much as a tight rail
+  "inamp-common-mode": { title: "In-amp common mode out of range", severity: "clip" },
+  "tia-stability": { title: "Loop may ring or oscillate", severity: "tight" },
+  "tia-bandwidth": { title: "Feedback pole inside the band", severity: "tight" },
+  "charge-corner": { title: "Low corner inside the band", severity: "tight" },
   safety: { title: "Safety", severity: "caution" },
   "noise-band": { title: "Noise band empty", severity: "note" },
 };

@@ -32,6 +32,9 @@ describe("warningWords", () => {
     }
     expect(SEVERITY_LOOK[warningWords("rail-clip").severity].rank).toBeLessThan(SEVERITY_LOOK[warningWords("alias").severity].rank);
     expect(warningWords("something-new")).toEqual({ title: "something-new", severity: "note" });
+    // the sensor front ends' checks are named too, and an unstable loop is not a mere note
+    for (const code of ["inamp-common-mode", "tia-stability", "tia-bandwidth", "charge-corner"]) expect(warningWords(code).title).not.toBe(code);
+    expect(SEVERITY_LOOK[warningWords("tia-stability").severity].rank).toBeLessThan(SEVERITY_LOOK[warningWords("noise-band").severity].rank);
   });
 });
 
