@@ -8,6 +8,8 @@ import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } fr
 import { useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/editor-context";
 import type { PlotMode } from "@/lib/store/editor-store";
 import { pathTo } from "@/lib/store/graph";
+import { isSourceKind } from "@/lib/chain/types";
+import { sourceSignal } from "@/lib/engine/sensors";
 import { buildFigure, figureMarks, figureShape, hoverIndex, plotCsv, plotLegend, plotMarkers, plotSeries, readoutAt, type Figure, type PlotInput } from "./plot-data";
 import { loadPlotlyWhenWanted, type PlotlyLike } from "./plotly-loader";
 import { drawCurvesDirectly } from "./direct-draw";
@@ -29,7 +31,7 @@ function useTarget(): { target: string | null; following: "selection" | "path" }
   const selected = useEditor((s) => (s.selected.length === 1 ? s.selected[0] : null));
   const live = useEditor((s) => s.live);
   const pathEnd = useEditor((s) => s.plotPathEnd);
-  if (live?.curves && selected && live.curves.index[selected] !== undefined && live.doc.nodes.find((n) => n.id === selected)?.kind !== "source") {
+  if (live?.curves && selected && live.curves.index[selected] !== undefined && !isSourceKind(live.doc.nodes.find((n) => n.id === selected)?.kind)) {
     return { target: selected, following: "selection" };
   }
   const ends = live?.paths.map((p) => p[p.length - 1]) ?? [];
@@ -66,7 +68,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
     if (path.length < 2) return null;
     const names: Record<string, string> = {};
     for (const n of chain.nodes) names[n.id] = n.label ? `${n.id} ${n.label}` : n.id;
-    const src = chain.nodes.find((n) => n.kind === "source");
+    const src = chain.nodes.find((n) => isSourceKind(n.kind));
     const end = chain.nodes.find((n) => n.id === target);
     return {
       curves,
@@ -74,7 +76,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
       mode,
       names,
       stages: stageById,
-      band: src?.kind === "source" ? { fLow: src.params.fLow, fHigh: src.params.fHigh } : null,
+      band: src ? (({ fLow, fHigh }) => ({ fLow, fHigh }))(sourceSignal(src)) : null,
       sampleRate: end?.kind === "adc" ? end.params.sampleRate : null,
     };
   }, [curves, chain, stageById, target, mode]);

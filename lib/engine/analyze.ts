@@ -539,9 +539,10 @@ function aliasFigures(
 ) {
   const node = cc.topology.nodes[end];
   const src = cc.topology.nodes[0];
-  if (node.kind !== "adc" || src.kind !== "source") return {};
+  if (node.kind !== "adc" || !isSourceKind(src.kind)) return {};
   const fs = node.params.sampleRate;
-  const { fLow, fHigh } = src.params;
+  // the band of any source kind (a sensor's as its signal description gives it)
+  const { fLow, fHigh } = sourceSignal(src);
   const attenuation = Array.from(freqs, (_, k) => {
     const m = Math.hypot(resp.cumRe[end][k], resp.cumIm[end][k]);
     return bandGain !== null && bandGain > 0 && m > 0 ? finiteOrNull(20 * Math.log10(bandGain / m)) : null;

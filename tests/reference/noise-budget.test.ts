@@ -81,4 +81,22 @@ describe("alias attenuation over frequency", () => {
     expect(bands.every((b) => b.low <= 2e5)).toBe(true);
     expect(bands.length).toBe(8);
   });
+
+  it("takes the band from a sensor source too: a photodiode's 100 Hz band into a TIA folds the same way", () => {
+    // the same fold rule (derived as above) with the band of a current source; the TIA only sets the scale
+    const sensor = makeChain({
+      nodes: [
+        { id: "src", kind: "photodiode", params: { dc: 0, dcSpread: 0, amplitude: 1e-6, fLow: 0, fHigh: 100, capacitance: 10e-12, shuntResistance: 1e9, darkCurrent: 0, noiseDensity: 0, safety: "low-voltage" } },
+        { id: "tia", kind: "transimpedance", params: { rf: 1e5, cf: 1e-9, vref: 0, cin: 0 }, rails: { low: -5, high: 5 } },
+        adc("adc", { sampleRate: 48e3, inputResistance: null }),
+      ],
+      analysis: { fMax: 2e5 },
+    });
+    const nz = analyzeChain(sensor).paths[0].noise;
+    expect((nz.foldBands as { low: number; high: number }[]).slice(0, 2)).toEqual([
+      { k: 1, low: 47_900, high: 48_000 },
+      { k: 1, low: 48_000, high: 48_100 },
+    ]);
+    expect((nz.aliasCurve as { f: number[] }).f.length).toBeGreaterThan(0);
+  });
 });
