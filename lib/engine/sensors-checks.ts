@@ -13,7 +13,7 @@ import type { Chain, Interval, OpAmpNode, Part } from "../chain/types";
 import { TWO_PI } from "./constants";
 import type { OperatingPoint } from "./dc";
 import { si } from "./format";
-import { chainSource, differenceAmpCmSpread, differenceAmpGains, sourceSignal, tiaStability } from "./sensors";
+import { chainSource, differenceAmpCmSpread, differenceAmpGains, differenceAmpTolerances, sourceSignal, tiaStability } from "./sensors";
 
 export interface FrontEndContext {
   op: OperatingPoint;
@@ -132,7 +132,7 @@ function diffAmpCmrr(chain: Chain, node: Extract<OpAmpNode, { kind: "differenceA
   const leg = sig.resistance / 2;
   const { r1, r2, r3, r4 } = node.params;
   const { ad, acm } = differenceAmpGains(r1, r2, r3, r4, leg);
-  const spread = differenceAmpCmSpread(r1, r2, r3, r4, chain.tolerances.resistor, leg);
+  const spread = differenceAmpCmSpread(r1, r2, r3, r4, differenceAmpTolerances(chain, node.id), leg);
   const db = (x: number) => (x > 0 && Number.isFinite(x) ? 20 * Math.log10(x) : null);
   return {
     figures: {

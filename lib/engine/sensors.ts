@@ -287,7 +287,7 @@ export function differenceAmpGains(r1: number, r2: number, r3: number, r4: numbe
  * worst case: Σ|∂Acm/∂ri|·ri·t, by central differences). For a matched amplifier of gain G this is
  * 4t·G/(1 + G), i.e. a worst CMRR of (1 + G)/(4t) (derived from Acm = (r1·r4 − r2·r3)/(r1·(r3 + r4))).
  */
-export function differenceAmpCmSpread(r1: number, r2: number, r3: number, r4: number, t: number, leg = 0): number {
+export function differenceAmpCmSpread(r1: number, r2: number, r3: number, r4: number, t: number | readonly number[], leg = 0): number {
   const base = [r1, r2, r3, r4];
   let sum = 0;
   for (let j = 0; j < 4; j++) {
@@ -295,9 +295,18 @@ export function differenceAmpCmSpread(r1: number, r2: number, r3: number, r4: nu
     const up = base.map((v, q) => (q === j ? v * (1 + h) : v));
     const dn = base.map((v, q) => (q === j ? v * (1 - h) : v));
     const dA = differenceAmpGains(up[0], up[1], up[2], up[3], leg).acm - differenceAmpGains(dn[0], dn[1], dn[2], dn[3], leg).acm;
-    sum += Math.abs(dA / (2 * h)) * t;
+    sum += Math.abs(dA / (2 * h)) * (typeof t === "number" ? t : t[j]);
   }
   return sum;
+}
+
+/**
+ * The tolerances of a difference amplifier's r1..r4: each one's `tolerances.overrides` entry, else
+ * `tolerances.resistor` (the same rule as the tolerance spread), so a matched network stated as such
+ * gives its own common-mode error.
+ */
+export function differenceAmpTolerances(chain: Chain, nodeId: string): number[] {
+  return ["r1", "r2", "r3", "r4"].map((k) => chain.tolerances.overrides?.[`${nodeId}.${k}`] ?? chain.tolerances.resistor);
 }
 
 /**
@@ -311,7 +320,7 @@ export function commonModeError(chain: Chain, node: ChainNode): number {
   const vcm = Math.abs(sig.vcm);
   if (node.kind === "differenceAmp") {
     const { r1, r2, r3, r4 } = node.params;
-    return vcm * differenceAmpCmSpread(r1, r2, r3, r4, chain.tolerances.resistor, sig.resistance / 2);
+    return vcm * differenceAmpCmSpread(r1, r2, r3, r4, differenceAmpTolerances(chain, node.id), sig.resistance / 2);
   }
   if (node.kind === "inAmp" && node.params.cmrrDb !== null) {
     const g = 1 + (2 * node.params.rf) / node.params.rg;

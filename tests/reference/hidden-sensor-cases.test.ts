@@ -208,6 +208,16 @@ describe("difference amplifier on a bridge: arm loading and resistor mismatch", 
     near(dc.min, g * vd - err, { abs: 1e-9 }, "derived: DC = G·Vd(mid) less the common-mode error");
     near(dc.max, g * vd + err, { abs: 1e-9 }, "derived: DC = G·Vd(mid) plus the common-mode error");
   });
+  it("a matched network stated as 0.01 % by tolerances.overrides: its common-mode error and worst CMRR use 0.01 %", () => {
+    const [r1, r2] = [1e4, 1e5];
+    const c = makeChain({ nodes: [thermocouple({ vcm: 2, tLow: 25, tHigh: 25.0001 }), differenceAmp("d", { r1, r2, r3: r1, r4: r2 }), adc("adc")] });
+    c.tolerances = { ...c.tolerances, overrides: { "d.r1": 1e-4, "d.r2": 1e-4, "d.r3": 1e-4, "d.r4": 1e-4 } };
+    const s = stageOf(analyze(c), "d");
+    const G = r2 / r1;
+    // derived (support/reference-analysis cmError): matched, no legs, each |∂Acm/∂ln ri| = G/(1 + G)
+    near((s.dcOut!.max - s.dcOut!.min) / 2, (2 * 4 * 1e-4 * G) / (1 + G), { rel: 1e-6 }, "lib/chain/README.md overrides: the stated 0.01 % sets |vcm|·4t·G/(1 + G)");
+    near(extra<{ worstDb: number }>(s, "cmrr").worstDb, 20 * Math.log10((1 + G) / 4e-4), { abs: 1e-5 }, "worst-case CMRR (1 + G)/(4t) with the stated t = 0.01 %");
+  });
   it("CMRR: nominal |Ad/Acm| from the four-resistor transfer, worst case (1 + G)/(4t) when matched", () => {
     // Derived from Vo = V+·(1 + r2/r1) − V−·r2/r1 with V+ = E+·r4/(r3 + r4) (ideal op-amp, no legs: a
     // thermocouple with leadResistance 0): Ad = (k·(1 + G) + G)/2, Acm = k·(1 + G) − G, k = r4/(r3 + r4), G = r2/r1.

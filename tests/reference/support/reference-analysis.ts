@@ -86,8 +86,8 @@ export function signalOf(chain: Chain): SourceSignal {
  * output (1 + r2/a; the in-amp's unity difference stage: 2), so err/noiseGain in that place is
  * the error at the ideal output, and a finite loop gain shrinks it as it shrinks the nominal
  * common-mode gain (the engine does so; its README says only "referred to the stage output").
- * The tolerance is `tolerances.resistor`, as the engine's README says "the resistor tolerance";
- * no reference chain here carries per-part overrides for these stages.
+ * Each resistor's tolerance is its `tolerances.overrides` entry, else `tolerances.resistor`
+ * (lib/chain/README.md: a part without an entry takes `resistor`).
  */
 export function cmError(chain: Chain, stageId: string): { err: number; noiseGain: number } {
   const node = chain.nodes.find((n) => n.id === stageId)!;
@@ -111,8 +111,8 @@ export function cmError(chain: Chain, stageId: string): { err: number; noiseGain
   const D = r3 + legR + r4;
   const k = r4 / D;
   const sens = [-(r1 * r2 * (k - 1)) / (a * a), (r2 * (k - 1)) / a, (-(1 + r2 / a) * r3 * r4) / (D * D), ((1 + r2 / a) * (r3 + legR) * r4) / (D * D)];
-  const t = chain.tolerances.resistor;
-  return { err: Math.abs(vcm) * t * sens.reduce((acc, x) => acc + Math.abs(x), 0), noiseGain: 1 + r2 / a };
+  const t = ["r1", "r2", "r3", "r4"].map((key) => chain.tolerances.overrides?.[`${stageId}.${key}`] ?? chain.tolerances.resistor);
+  return { err: Math.abs(vcm) * sens.reduce((acc, x, i) => acc + Math.abs(x) * t[i], 0), noiseGain: 1 + r2 / a };
 }
 
 /**
