@@ -5,7 +5,7 @@
  * response envelope, histograms per stage, the worst-case corners, the parts ranked by how far their
  * tolerance moves each figure, and the share of builds that clip. Every number is the engine's.
  */
-import { useEffect, useMemo, useRef, useState } from "react";
+import { memo, useDeferredValue, useEffect, useMemo, useRef, useState } from "react";
 import type { Chain } from "@/lib/chain/types";
 import type { SpreadDistribution, SpreadMetric, SpreadResult, SpreadStat } from "@/lib/engine/spread";
 import { SPREAD_LIMITS } from "@/lib/engine/spread";
@@ -43,14 +43,27 @@ export function SpreadPanel() {
   const [result, setResult] = useState<SpreadResult | null>(null);
   const client = useRef<SpreadClient | null>(null);
   const idRef = useRef(0);
+  const pending = useRef<{ done: number; total: number; result?: SpreadResult } | null>(null);
 
   useEffect(() => {
+    // progress comes after every slice of the worker (about 50 a second): it is drawn once per frame,
+    // the latest of it, with the newest partial result that came since
+    const flush = () => {
+      const p = pending.current;
+      pending.current = null;
+      if (!p) return;
+      setState((s) => (s.phase === "running" ? { ...s, done: p.done, total: p.total } : s));
+      if (p.result) setResult(p.result);
+    };
     const c = createSpreadClient((m: SpreadMessage) => {
       if (m.id !== idRef.current) return; // an older run's last words
       if (m.type === "progress") {
-        setState((s) => (s.phase === "running" ? { ...s, done: m.done, total: m.total } : s));
-        if (m.result) setResult(m.result);
-      } else if (m.type === "done") {
+        if (!pending.current) requestAnimationFrame(flush);
+        pending.current = { done: m.done, total: m.total, result: m.result ?? pending.current?.result };
+        return;
+      }
+      pending.current = null; // the run's last word replaces whatever progress was waiting to be drawn
+      if (m.type === "done") {
         setResult(m.result);
         setState((s) => (s.phase === "running" ? { phase: "done", ms: m.ms, chain: s.chain } : s));
       } else if (m.type === "cancelled") {
@@ -70,11 +83,15 @@ export function SpreadPanel() {
   const start = () => {
     if (!chain || trialsBad || seedBad || !client.current) return;
     setResult(null);
+    pending.current = null;
     const id = client.current.start(chain, { trials: trialsN, seed: seedN, distribution });
     idRef.current = id;
     setState({ phase: "running", id, done: 0, total: 1, chain });
   };
   const cancel = () => client.current?.cancel();
+  // the results redraw at a lower priority than typing and the progress bar, and only when a new
+  // (partial) result arrives, not with every progress message
+  const shown = useDeferredValue(result);
   const ranOn = state.phase === "running" || state.phase === "done" || state.phase === "cancelled" ? state.chain : null;
   const stale = ranOn !== null && chain !== null && ranOn !== chain;
 
@@ -120,7 +137,7 @@ export function SpreadPanel() {
       <div className="mt-2">
         <SnapPanel />
       </div>
-      {result && <SpreadResults result={result} />}
+      {shown && <SpreadResults result={shown} />}
     </div>
   );
 }
@@ -145,14 +162,15 @@ function Progress({ state, result }: { state: RunState; result: SpreadResult | n
   );
 }
 
-function SpreadResults({ result }: { result: SpreadResult }) {
+const SpreadResults = memo(function SpreadResults({ result }: { result: SpreadResult }) {
   const [pathIdx, setPathIdx] = useState(0);
   const stages = result.stages.filter((s) => s.dcGain || s.f0 || s.q || s.margin);
   const [stageId, setStageId] = useState<string | null>(null);
   const stage = stages.find((s) => s.id === stageId) ?? stages.find((s) => s.id === result.criticalNode) ?? stages[0];
   const env = result.response.paths[Math.min(pathIdx, result.response.paths.length - 1)];
   return (
-    <div className="mt-2 grid gap-3">
+    // contained: a redraw of the results lays out and paints only them
+    <div className="mt-2 grid gap-3 [contain:content]">
       <p data-testid="spread-clip-share">
         <strong className={result.clipShare > 0 ? "text-status-clip" : "text-status-ok"}>{pct(result.clipShare)}</strong> of {result.done} builds clip somewhere
         {result.clipCount > 0 ? ` (${result.clipCount})` : ""}
@@ -213,7 +231,7 @@ function SpreadResults({ result }: { result: SpreadResult }) {
       <SensitivityTable result={result} />
     </div>
   );
-}
+});
 
 function StatHistogram({ metric, stat }: { metric: SpreadMetric; stat: SpreadStat }) {
   return (

@@ -110,9 +110,9 @@ export function LogFreqPlot({
       const b = hi[k];
       if (a === null || b === null) return;
       top.push(`${X(fr).toFixed(1)},${Y(b).toFixed(1)}`);
-      bottom.unshift(`${X(fr).toFixed(1)},${Y(a).toFixed(1)}`);
+      bottom.push(`${X(fr).toFixed(1)},${Y(a).toFixed(1)}`);
     });
-    return top.length ? `M${top.join("L")}L${bottom.join("L")}Z` : "";
+    return top.length ? `M${top.join("L")}L${bottom.reverse().join("L")}Z` : "";
   };
   const decades: number[] = [];
   for (let d = Math.ceil(lx0); d <= Math.floor(lx1); d++) decades.push(d);

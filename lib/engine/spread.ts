@@ -533,11 +533,13 @@ const METRICS: SpreadMetric[] = ["dcGain", "f0", "q", "margin"];
 // Statistics
 
 function statOf(values: Float64Array, count: number, nominal: number): SpreadStat | null {
-  const xs: number[] = [];
-  for (let k = 0; k < count; k++) if (Number.isFinite(values[k])) xs.push(values[k]);
-  if (!xs.length) return Number.isFinite(nominal) ? emptyStat(nominal) : null;
-  xs.sort((a, b) => a - b);
-  const m = xs.length;
+  // the finite values, sorted as a typed array (numeric, several times faster than an array with a
+  // comparator: a partial result at 10,000 builds sorts 44 of these)
+  let m = 0;
+  const all = new Float64Array(count);
+  for (let k = 0; k < count; k++) if (Number.isFinite(values[k])) all[m++] = values[k];
+  if (!m) return Number.isFinite(nominal) ? emptyStat(nominal) : null;
+  const xs = all.subarray(0, m).sort();
   let mean = 0;
   for (const x of xs) mean += x;
   mean /= m;

@@ -156,11 +156,13 @@ if (!spreadOnly) {
     timed(() => (res = run.result()));
     return { setup, builds, perBuild: median(each), result: work - setup - builds, all: work, res };
   };
-  const a = spreadRun(1000);
+  // three runs of 1,000 builds (the one with the median estimate is shown), then the larger run
+  const estimateOf = (r: ReturnType<typeof spreadRun>) => r.setup + 1000 * r.perBuild + r.result;
+  const a = [spreadRun(1000), spreadRun(1000), spreadRun(1000)].sort((x, y) => estimateOf(x) - estimateOf(y))[1];
   const b = bigSpread > 0 ? spreadRun(bigSpread) : null;
   const sweep1k = median(sweepTimes);
   console.log("");
-  console.log(`3. tolerance spread: ${stages} stages, ${sp} points, ${a.res.parts.length} parts varied`);
+  console.log(`3. tolerance spread: ${stages} stages, ${sp} points, ${a.res.parts.length} parts varied (1,000 builds: the median of three runs)`);
   console.log(`   one sweep at ${sp} points       median ${sweep1k.toFixed(3)} ms (${sweepTimes.length} sweeps between the spread's slices)`);
   const line = (n: number, r: ReturnType<typeof spreadRun>) =>
     console.log(
@@ -172,7 +174,7 @@ if (!spreadOnly) {
   line(1000, a);
   if (b) line(bigSpread, b);
   // medians on both sides, so a busy machine's stolen slices count for neither
-  const estimate = a.setup + 1000 * a.perBuild + a.result;
+  const estimate = estimateOf(a);
   console.log(
     `   target (issue 9): 1,000 builds in under 0.5 s: ${estimate < 500 ? "met" : "NOT met"} ` +
       `(${(estimate / 1000).toFixed(2)} s from the medians, ${(a.all / 1000).toFixed(2)} s by the wall clock; ` +

@@ -84,4 +84,20 @@ describe("the command line and the worker's code path", () => {
     expect(out.finished).toBe(false);
     if (!out.finished) expect(out.done).toBeLessThan(out.total);
   });
+
+  it("a cancel sent during a slice is taken before a partial result is worked out", async () => {
+    const v = validateChain(exampleChain());
+    if (!v.ok) throw new Error("example chain invalid");
+    let pauses = 0;
+    let partials = 0;
+    const out = await driveSpread(v.chain, { trials: 5000, seed: 1 }, {
+      sliceMs: 1,
+      partialEveryMs: 0, // a partial is due after every slice
+      cancelled: () => pauses >= 1, // the cancel arrives during the first slice
+      pause: async () => void pauses++,
+      progress: (_done, _total, partial) => void (partial && partials++),
+    });
+    expect(out.finished).toBe(false);
+    expect(partials).toBe(0);
+  });
 });
