@@ -12,8 +12,22 @@ import { ReportTable, td, tdText } from "./report-table";
 
 const v = (x: number | null | undefined) => (x === null || x === undefined ? "—" : fmtVolts(x));
 const deg = (x: number | null) => (x === null ? "—" : `${x.toFixed(1).replace("-", "−")}°`);
-/** a range at four digits: at three, a 1 % spread of a few volts would read as one number */
-const span = (r: Range | null, unbounded: string) => (r ? `${fmt(r.min, "volt", 4)} … ${fmt(r.max, "volt", 4)}` : unbounded);
+/**
+ * Digits for a range: four, or more when the range is narrow against its level (at most seven), so its
+ * two ends differ where the builds did: a 2.5 V level that moves by 300 µV reads 2.49985 V … 2.50015 V.
+ */
+export function rangeDigits(r: Range): number {
+  const level = Math.max(Math.abs(r.min), Math.abs(r.max));
+  const width = r.max - r.min;
+  if (!(width > 0) || !(level > 0)) return 4;
+  return Math.min(7, Math.max(4, Math.ceil(Math.log10(level / width)) + 2));
+}
+
+export const rangeText = (r: Range | null, unbounded: string) => {
+  if (!r) return unbounded;
+  const d = rangeDigits(r);
+  return `${fmt(r.min, "volt", d)} … ${fmt(r.max, "volt", d)}`;
+};
 const pct = (t: number) => `${Number((t * 100).toPrecision(3))} %`;
 
 export function spreadNote(spread: NonNullable<BringUpSheet["spread"]>): string {
@@ -36,6 +50,7 @@ export function BringUpTable({ sheet }: { sheet: BringUpSheet }) {
     <ReportTable
       head={head}
       testId="bring-up-table"
+      wide
       caption={spread ? <span data-testid="bring-up-spread-note">{spreadNote(spread)}</span> : undefined}
     >
       {sheet.points.map((tp, j) => {
@@ -50,13 +65,13 @@ export function BringUpTable({ sheet }: { sheet: BringUpSheet }) {
             </td>
             {s && (
               <td className={td} data-testid="spread-dc" title={s.dcInterval ? `${s.dcInterval.min} V to ${s.dcInterval.max} V` : undefined}>
-                {span(s.dcInterval, "unbounded")}
+                {rangeText(s.dcInterval, "unbounded")}
               </td>
             )}
             {tp.ac.map((a, k) => (
               <td key={a.f} className={td}>
                 {a.amplitude === null ? "—" : `${fmtVolts(a.amplitude)} pk, ${deg(a.phaseDeg)}`}
-                {s && <span className="block text-graphite-500">{span(s.amplitude[k], "—")}</span>}
+                {s && <span className="block text-graphite-500">{rangeText(s.amplitude[k], "—")}</span>}
               </td>
             ))}
           </tr>

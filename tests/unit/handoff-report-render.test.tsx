@@ -5,15 +5,14 @@
  */
 import { cleanup, render, screen } from "@testing-library/react";
 import { afterEach, describe, expect, it } from "vitest";
-import { BringUpTable } from "@/components/outputs/bring-up-table";
+import { BringUpTable, rangeDigits, rangeText } from "@/components/outputs/bring-up-table";
 import { analyzeChain } from "@/lib/engine";
 import { buildBringUpSheet, defaultTestFrequencies, withSpread } from "@/lib/handoff";
-import { formatQuantity } from "@/lib/units";
 import { demo } from "./handoff-support";
 
 afterEach(cleanup);
 
-const range = (r: { min: number; max: number } | null) => (r ? `${formatQuantity(r.min, "volt", 4)} … ${formatQuantity(r.max, "volt", 4)}` : null);
+const range = (r: { min: number; max: number } | null) => (r ? rangeText(r, "") : null);
 
 describe("BringUpTable", () => {
   it("shows each point's DC over the builds and the AC range per frequency, and states builds, seed and tolerances", () => {
@@ -37,6 +36,19 @@ describe("BringUpTable", () => {
     expect(note).toContain("40 builds (seed 3)");
     expect(note).toContain(`resistors ±${Number((hull.tolerances.resistor * 100).toPrecision(3))} %`);
     expect(note).toContain(`${sheet.spread!.parts} parts vary`);
+    // wherever the builds moved a level, its two printed ends differ
+    for (const s of sheet.spread!.points) {
+      for (const r of [s.dcInterval, ...s.amplitude]) {
+        if (r && r.max > r.min) expect(new Set(rangeText(r, "").split(" … ")).size).toBe(2);
+      }
+    }
+  });
+
+  it("prints narrow ranges with more digits, up to seven", () => {
+    expect(rangeDigits({ min: 0.382, max: 0.399 })).toBe(4);
+    expect(rangeText({ min: 2.49985, max: 2.50015 }, "")).toBe("2.49985 V … 2.50015 V");
+    expect(rangeDigits({ min: 1, max: 1 + 1e-12 })).toBe(7);
+    expect(rangeDigits({ min: 0, max: 0 })).toBe(4);
   });
 
   it("without a spread the table keeps its four DC columns and says nothing of builds", () => {
