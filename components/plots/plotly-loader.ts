@@ -3,8 +3,8 @@
  * JavaScript. The one promise is shared by every plot on the page.
  *
  * Evaluating it holds the main thread for a second or more on a slow machine, so the workspace's response
- * plot does not load it as it opens: it draws its first figures as plain SVG (svg-figure.ts) and asks for
- * Plotly through `loadPlotlyWhenWanted`, when someone reaches for the plot or the page has been left alone.
+ * plot does not load it as it opens: it draws its figures as plain SVG (svg-figure.ts) and asks for
+ * Plotly through `loadPlotlyWhenWanted`, when someone reaches for the plot.
  */
 export interface PlotlyLike {
   react(el: HTMLElement, data: unknown[], layout: unknown, config?: unknown): Promise<unknown>;
@@ -22,28 +22,21 @@ export function loadPlotly(): Promise<PlotlyLike> {
   return loading;
 }
 
-/** Input that means someone is working in the page: Plotly waits for a pause in it. */
-const BUSY_EVENTS = ["keydown", "input", "pointerdown", "wheel"] as const;
-/** Reaching for the plot itself: Plotly is loaded at once (its cursor readout and zoom are wanted). */
-const WANT_EVENTS = ["pointerenter", "pointerdown", "focusin"] as const;
-/** How long the page must go without input before Plotly is loaded unasked. */
-export const QUIET_MS = 3000;
+/**
+ * Reaching for the plot itself: Plotly is loaded then (its cursor readout and zoom are what it is for).
+ * pointermove as well as pointerenter: a pointer that was over the plot when the page drew it has entered
+ * before anyone listened, and only moves.
+ */
+const WANT_EVENTS = ["pointerenter", "pointermove", "pointerdown", "focusin"] as const;
 
 /**
- * Loads Plotly when it is wanted: at once when a pointer enters `area` or the focus moves into it, else
- * once the page has had no key, pointer or wheel input for `quietMs` (in the browser's idle time after
- * that), so its evaluation does not fall into a run of typing. Answers a function that stops waiting.
+ * Loads Plotly when it is wanted: when a pointer enters `area` or the focus moves into it, and not
+ * before, so its evaluation never falls into typing elsewhere in the page (a page that has loaded it
+ * already gets it at once). Answers a function that stops waiting.
  */
-export function loadPlotlyWhenWanted(area: HTMLElement, onReady: (p: PlotlyLike) => void, onError: (e: unknown) => void, quietMs = QUIET_MS): () => void {
+export function loadPlotlyWhenWanted(area: HTMLElement, onReady: (p: PlotlyLike) => void, onError: (e: unknown) => void): () => void {
   let done = false;
-  let timer: ReturnType<typeof setTimeout> | null = null;
-  let idle: number | null = null;
   const stopWaiting = () => {
-    if (timer) clearTimeout(timer);
-    if (idle !== null && typeof cancelIdleCallback === "function") cancelIdleCallback(idle);
-    timer = null;
-    idle = null;
-    for (const ev of BUSY_EVENTS) window.removeEventListener(ev, restart, true);
     for (const ev of WANT_EVENTS) area.removeEventListener(ev, start);
   };
   function start() {
@@ -52,24 +45,12 @@ export function loadPlotlyWhenWanted(area: HTMLElement, onReady: (p: PlotlyLike)
     stopWaiting();
     loadPlotly().then(onReady, onError);
   }
-  function restart() {
-    if (timer) clearTimeout(timer);
-    if (idle !== null && typeof cancelIdleCallback === "function") cancelIdleCallback(idle);
-    idle = null;
-    timer = setTimeout(() => {
-      timer = null;
-      if (typeof requestIdleCallback === "function") idle = requestIdleCallback(start, { timeout: 2000 });
-      else start();
-    }, quietMs);
-  }
   if (loading) {
     // already asked for (another plot on the page, or this one before a remount): nothing to wait for
     start();
     return () => {};
   }
-  for (const ev of BUSY_EVENTS) window.addEventListener(ev, restart, { capture: true, passive: true });
   for (const ev of WANT_EVENTS) area.addEventListener(ev, start);
-  restart();
   return () => {
     done = true;
     stopWaiting();

@@ -62,9 +62,9 @@ export async function waitForSaveState(page: Page, state: string, timeout = 15_0
 
 /**
  * Plotly has drawn at least one line (a flat line has no height, so this checks its path data; Plotly
- * draws a straight line with two points only). The workspace draws its first figures as plain SVG and
- * loads Plotly when the pointer reaches the plot (or after a spell without input), so this points at the
- * plot's toolbar first, as someone wanting the readout would, when the plot is on screen.
+ * draws a straight line with two points only). The workspace draws its figures as plain SVG and loads
+ * Plotly when the pointer reaches the plot, so this points at the plot's toolbar first, as someone
+ * wanting the readout would, when the plot is on screen.
  */
 export async function waitForPlot(page: Page): Promise<void> {
   const plot = page.getByTestId("response-plot");
