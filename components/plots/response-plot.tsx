@@ -3,6 +3,7 @@
  * The response plot: magnitude over phase, one shared log-frequency axis, the cascade along the path to
  * the chosen node (each stage's cascade up to it, or each stage on its own), with markers at corners, the
  * source band, Nyquist and the alias frequency, a readout at the cursor and CSV export of what is drawn.
+ * Measured responses stored on the chain are laid over it with their difference (measured-overlay.tsx).
  */
 import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import { useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/editor-context";
@@ -14,6 +15,9 @@ import { buildFigure, figureMarks, figureShape, hoverIndex, plotCsv, plotLegend,
 import { loadPlotlyWhenWanted, type PlotlyLike } from "./plotly-loader";
 import { drawCurvesDirectly } from "./direct-draw";
 import { figureSvg } from "./svg-figure";
+import { downloadText } from "./download";
+import { withMeasured } from "./measured-figure";
+import { MeasuredControls, useMeasured } from "./measured-overlay";
 
 /** How long after the last direct redraw Plotly redraws the figure itself (its hover and zoom state). */
 const CATCH_UP_MS = 250;
@@ -60,6 +64,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
   const [ready, setReady] = useState(false);
   const [loadError, setLoadError] = useState<string | null>(null);
   const [hoverK, setHoverK] = useState<number | null>(null);
+  const measured = useMeasured(visible);
 
   // Only what is drawn: a full-tier result with the same curves and figures does not redraw.
   const input = useMemo<PlotInput | null>(() => {
@@ -169,7 +174,8 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
       performance.mark(`cw:plot:${rev}`);
       return;
     }
-    const fig = buildFigure(series, markers, input.curves.f, widthRef.current || undefined);
+    // measured responses are drawn by Plotly only (the plain SVG shows the computed curves)
+    const fig = withMeasured(buildFigure(series, markers, input.curves.f, widthRef.current || undefined), measured.overlays);
     figRef.current = fig;
     const shape = figureShape(fig);
     const marks = figureMarks(fig);
@@ -210,7 +216,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
     // with this frame; Plotly's redraws when their promise settles).
     if (drawn) void drawn.then(() => performance.mark(`cw:plot:${rev}`));
     else performance.mark(`cw:plot:${rev}`);
-  }, [ready, input, series, markers, store, visible, catchUp]);
+  }, [ready, input, series, markers, store, visible, catchUp, measured.overlays]);
 
   useEffect(() => {
     const node = el.current as (HTMLDivElement & { on?: (ev: string, fn: (d: { points?: { pointIndex?: number; pointNumber?: number; data?: { meta?: unknown } }[] }) => void) => void }) | null;
@@ -235,14 +241,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
 
   const exportCsv = () => {
     if (!input) return;
-    const blob = new Blob([plotCsv(series, input.curves.f, mode)], { type: "text/csv" });
-    const a = document.createElement("a");
-    a.href = URL.createObjectURL(blob);
-    a.download = `${name.replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "") || "chain"}-response-${target}.csv`;
-    document.body.appendChild(a);
-    a.click();
-    a.remove();
-    setTimeout(() => URL.revokeObjectURL(a.href), 1000);
+    downloadText(`${name.replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "") || "chain"}-response-${target}.csv`, plotCsv(series, input.curves.f, mode));
   };
 
   return (
@@ -309,6 +308,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
           Export CSV
         </button>
       </div>
+      <MeasuredControls state={measured} />
       <div className="relative min-h-0 flex-1">
         <div ref={svgEl} className="absolute inset-0" data-testid="plot-svg" aria-hidden={drawnBy !== "svg"} />
         <div ref={el} className="absolute inset-0" data-testid="plot-area" data-ready={ready && input ? "1" : "0"} data-drawn={input ? drawnBy : "none"} />

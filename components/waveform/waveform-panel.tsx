@@ -7,7 +7,6 @@
  * stage clipped.
  */
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
-import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useEditor } from "@/lib/store/editor-context";
 import { MAX_SAMPLES, type Stimulus, type WaveformRun } from "@/lib/engine/time-domain";
 import { OUTPUT_UNIT, sourceSignal } from "@/lib/engine/sensors";
@@ -16,6 +15,7 @@ import { problemText, type CsvResult, type WaveformData } from "@/lib/waveform-c
 import { loadPlotly, type PlotlyLike } from "@/components/plots/plotly-loader";
 import type { WaveformRequest, WaveformResponse } from "./waveform-protocol";
 import { clipRows, rowsOf, waveformFigure } from "./waveform-figure";
+import { deleteStoredFile, readStoredFile, storeChainFile, useChainFiles, type StoredFile } from "./chain-files-client";
 
 type Kind = Stimulus["kind"] | "recording";
 const KINDS: { id: Kind; label: string }[] = [
@@ -30,14 +30,6 @@ const EXAMPLES = [
   { href: "/examples/keelwater-hull-knock-burst.csv", label: "hull knock burst (20 kS/s)" },
   { href: "/examples/keelwater-ballast-pressure-step.csv", label: "ballast pressure step with offset (1 kS/s)" },
 ];
-
-interface StoredFile {
-  id: string;
-  kind: "waveform" | "response";
-  name: string;
-  rows: number;
-  sampleRate: number | null;
-}
 
 const fmt = (x: number, d = 3) => (Number.isFinite(x) ? Number(x.toPrecision(d)).toString() : "—");
 
@@ -96,19 +88,10 @@ export function WaveformPanel({ chainId, visible }: { chainId: string | null; vi
   const freq = frequency ?? (sp ? Math.sqrt(Math.max(sp.fLow, 1) * Math.max(sp.fHigh, 1)) : 100);
   const fs = sampleRate ?? Math.min(2e6, Math.max(1e3, 100 * (sp?.fHigh ?? 1e3)));
 
-  const queryClient = useQueryClient();
-  const stored = useQuery({
-    queryKey: ["chain-files", chainId],
-    enabled: visible && chainId !== null,
-    queryFn: async () => {
-      const res = await fetch(`/api/chains/${chainId}/uploads`);
-      if (!res.ok) throw new Error(`the list of stored files did not load (${res.status})`);
-      return (await res.json()) as { files: StoredFile[]; canUpload: boolean };
-    },
-  });
-  const files = (stored.data?.files ?? []).filter((f) => f.kind === "waveform");
-  const canUpload = stored.data?.canUpload ?? false;
-  const refreshFiles = () => queryClient.invalidateQueries({ queryKey: ["chain-files", chainId] });
+  const stored = useChainFiles(chainId, visible);
+  const files = stored.files.filter((f) => f.kind === "waveform");
+  const canUpload = stored.canUpload;
+  const refreshFiles = stored.refresh;
 
   const readText = async (name: string, text: string) => {
     const r = await ask({ type: "parse", kind: "waveform", text, sampleRate: csvRate });
@@ -120,28 +103,24 @@ export function WaveformPanel({ chainId, visible }: { chainId: string | null; vi
     await readText(file.name, await file.text());
   };
   const pickStored = async (f: StoredFile) => {
-    const res = await fetch(`/api/chains/${chainId}/uploads/${f.id}`);
-    if (!res.ok) return setMessage(`Could not read ${f.name} (${res.status}).`);
+    if (!chainId) return;
+    const got = await readStoredFile(chainId, f.id);
+    if ("status" in got) return setMessage(`Could not read ${f.name} (${got.status}).`);
     if (f.sampleRate) setCsvRate(f.sampleRate);
-    const text = await res.text();
+    const text = got.text;
     const r = await ask({ type: "parse", kind: "waveform", text, sampleRate: f.sampleRate });
     if (r.type === "parsed" && r.kind === "waveform") setRecording({ name: f.name, text, parsed: r.result });
     setKind("recording");
   };
   const store = async () => {
     if (!chainId || !recording?.parsed.ok) return;
-    const res = await fetch(`/api/chains/${chainId}/uploads`, {
-      method: "POST",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify({ kind: "waveform", name: recording.name, csv: recording.text, sampleRate: recording.parsed.data.columns === 1 ? recording.parsed.data.sampleRate : null }),
-    });
-    const body = (await res.json().catch(() => ({}))) as { error?: string; errors?: { message: string }[] };
-    setMessage(res.ok ? `Stored ${recording.name} on this chain.` : (body.errors?.map((e) => e.message).join("; ") ?? body.error ?? `Refused (${res.status}).`));
+    const r = await storeChainFile(chainId, { kind: "waveform", name: recording.name, csv: recording.text, sampleRate: recording.parsed.data.columns === 1 ? recording.parsed.data.sampleRate : null });
+    setMessage(r.ok ? `Stored ${recording.name} on this chain.` : r.message);
     void refreshFiles();
   };
   const removeStored = async (f: StoredFile) => {
-    const res = await fetch(`/api/chains/${chainId}/uploads/${f.id}`, { method: "DELETE" });
-    setMessage(res.ok ? `Deleted ${f.name}.` : `Could not delete ${f.name} (${res.status}).`);
+    if (!chainId) return;
+    setMessage((await deleteStoredFile(chainId, f.id)) ? `Deleted ${f.name}.` : `Could not delete ${f.name}.`);
     void refreshFiles();
   };
 
