@@ -2,9 +2,11 @@
  * Writes public/examples/keelwater-hull-vibration-measured.csv: an invented bench sweep of the demo's
  * hull vibration channel at its converter input, for trying the measured-response overlay. It is the
  * computed response of the demo chain built a little off its drawn values, as a real board would be
- * (AC-coupling capacitor 8 % low, anti-alias c2 4 % high, gain resistor rf 0.5 % low), seen through a
+ * (charge amplifier's cf 3 % high, anti-alias c2 4 % high, gain resistor rf 0.5 % low), seen through a
  * 1.5 µs delay in the measuring set-up, with a small seeded scatter (±0.03 dB, ±0.3°) standing in for
- * measurement noise. Run: npx tsx scripts/example-measured-response.ts
+ * measurement noise. The source is a charge (a piezo), so the magnitude is in dB re 1 V/C, as the
+ * response plot shows it (a bench would inject the charge through a known test capacitor).
+ * Run: npx tsx scripts/example-measured-response.ts
  */
 import { writeFileSync } from "node:fs";
 import { hullVibration } from "../db/seed-data/chains";
@@ -17,7 +19,7 @@ const param = (id: string, key: string, factor: number) => {
   const n = built.nodes.find((x) => x.id === id) as unknown as { params: Record<string, number> };
   n.params[key] *= factor;
 };
-param("ac", "c", 0.92);
+param("ca", "cf", 1.03);
 param("aa", "c2", 1.04);
 param("gain", "rf", 0.995);
 

@@ -124,8 +124,10 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
     const watch = new ResizeObserver((entries) => {
       const box = entries[0]?.contentRect;
       widthRef.current = box?.width ?? 0;
-      // the SVG has a fixed size: drawn again at the new one (Plotly resizes itself)
+      // the SVG has a fixed size: drawn again at the new one
       if (box && svgEl.current?.firstChild && figRef.current) svgEl.current.innerHTML = figureSvg(figRef.current, box.width, box.height);
+      // Plotly follows the window's size by itself, not its box's (the measured-response list unfolding above it)
+      else if (plotly.current && (node as { _fullLayout?: unknown })._fullLayout) plotly.current.Plots.resize(node);
     });
     watch.observe(node);
     return () => watch.disconnect();
