@@ -121,10 +121,12 @@ export function readBuild(distDir: string): BuildReport {
  * and only the chain pages that draw plots may reach it.
  */
 export const BUDGET_GZIP_KB: Array<{ match: RegExp; kb: number; plotly: boolean }> = [
-  // the workspace and its read-only twin (/view renders the same editor with every edit off)
-  { match: /^\/\(workspace\)\/chains\/\[id\](\/view)?$/, kb: 380, plotly: true },
-  // the report renders its plots as images with the plotting library, and the outputs page offers it; both load it lazily
-  { match: /^\/\(workspace\)\/chains\/\[id\]\/(report|outputs)$/, kb: 230, plotly: true },
+  // the workspace and its read-only twin (/view renders the same editor with every edit off); raised from
+  // 380 to 400 kB on 2026-12-04 when it reached 380 kB with the direct SVG first plot, the sensor inspector
+  // (TIA loop, suggested cf) and the measured-response overlay
+  { match: /^\/\(workspace\)\/chains\/\[id\](\/view)?$/, kb: 400, plotly: true },
+  // the report renders its plots as images with the plotting library, loaded lazily
+  { match: /^\/\(workspace\)\/chains\/\[id\]\/report$/, kb: 230, plotly: true },
   { match: /.*/, kb: 230, plotly: false },
 ];
 
