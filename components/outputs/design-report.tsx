@@ -16,6 +16,7 @@ import {
   reportSpread,
   safetyCalls,
   signalOrder,
+  SOURCE_QUANTITY,
   withSpread,
 } from "@/lib/handoff";
 import { formatQuantity } from "@/lib/units";
@@ -237,8 +238,8 @@ export function DesignReport(p: ReportProps) {
         {scalings.map((r) =>
           r.ok ? (
             <p key={r.scaling.adcId} className="report-keep mb-1">
-              <b>{names.get(r.scaling.adcId)}</b> ({r.scaling.coupling === "dc" ? "DC-coupled" : `AC-coupled, at ${formatQuantity(r.scaling.scalingFrequency, "hertz")}`}): source volts ={" "}
-              <span className="num">{r.scaling.sourceVoltsPerCode.toPrecision(6)}</span> × code + <span className="num">{r.scaling.sourceOffsetVolts.toPrecision(6)}</span> V; zero input
+              <b>{names.get(r.scaling.adcId)}</b> ({r.scaling.coupling === "dc" ? "DC-coupled" : `AC-coupled, at ${formatQuantity(r.scaling.scalingFrequency, "hertz")}`}): source {SOURCE_QUANTITY[r.scaling.sourceUnit ?? "V"]} ={" "}
+              <span className="num">{r.scaling.sourceVoltsPerCode.toPrecision(6)}</span> × code + <span className="num">{r.scaling.sourceOffsetVolts.toPrecision(6)}</span> {r.scaling.sourceUnit ?? "V"}; zero input
               reads code <span className="num">{r.scaling.zeroInputCode}</span>; group delay {fmt(r.scaling.groupDelay, "second")}
               {r.scaling.measurand && (
                 <>

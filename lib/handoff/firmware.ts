@@ -11,13 +11,17 @@
  * - An AC-coupled path (a series capacitor blocks the source's DC) has no DC relation to the source; it
  *   is scaled with the signed gain at the middle of the source band, and the "source volts" it gives are
  *   the signal's swing about the converter's resting level, not the source's DC.
+ * - A current source (photodiode) or a charge source (piezo in charge mode) is scaled the same way in its
+ *   own quantity: the "source volts" fields then hold amperes or coulombs, and `sourceUnit` says which
+ *   (the field names stay for documents made before sensor sources). The C header names its constants
+ *   by the quantity (SOURCE_VOLTS / SOURCE_AMPS / SOURCE_COULOMBS) so firmware cannot mistake them.
  * - The measurand = source volts / sensitivity. A sensor whose output is not zero at zero measurand has
  *   that offset subtracted by the firmware (the chain format carries no such figure).
  * - Group delay −dφ/dω of the path at the scaling frequency (a low frequency, a thousandth of the source
  *   band's top, for a DC-coupled path): how long a slow change takes to reach the converter.
  */
 import { isSourceKind } from "@/lib/chain/types";
-import { sourceSignal } from "@/lib/engine/sensors";
+import { OUTPUT_UNIT, sourceSignal } from "@/lib/engine/sensors";
 import type { AnalysisResult, Chain, ChainNode } from "../chain/types";
 import { compileChain, type CompiledChain } from "../engine";
 import { nominalOf } from "./bring-up";
@@ -34,7 +38,9 @@ export interface FirmwareScaling {
   coupling: "dc" | "ac";
   /** Hz; 0 for a DC-coupled path */
   scalingFrequency: number;
-  /** V at the converter per V at the source, signed */
+  /** the unit of the source's output quantity: V (voltage and bridge sources), A (photodiode), C (charge) */
+  sourceUnit: "V" | "A" | "C";
+  /** V at the converter per sourceUnit at the source, signed */
   gain: number;
   /** phase of the path at scalingFrequency, degrees (0 or ±180 at DC) */
   gainPhaseDeg: number;
@@ -42,7 +48,9 @@ export interface FirmwareScaling {
   zeroInputVolts: number;
   /** the code of that voltage (may lie outside 0 … codeMax, which means zero input is out of range) */
   zeroInputCode: number;
+  /** sourceUnit per code (volts for a voltage source, amperes or coulombs otherwise) */
   sourceVoltsPerCode: number;
+  /** in sourceUnit */
   sourceOffsetVolts: number;
   measurand: null | { unit: string; sensitivity: number; unitsPerCode: number; unitOffset: number };
   /** s */
@@ -55,7 +63,7 @@ export type ScalingResult = { ok: true; scaling: FirmwareScaling } | { ok: false
 
 const CONVENTION =
   "code = round((v - vinLow)/lsb) held to codeMin..codeMax; v = vinLow + code*lsb; " +
-  "source volts = sourceVoltsPerCode*code + sourceOffsetVolts; measurand = source volts / sensitivity";
+  "source value (in sourceUnit: V, A or C) = sourceVoltsPerCode*code + sourceOffsetVolts; measurand = source value / sensitivity";
 
 /** Ratio of a complex number to another as its phase, radians (no wrapping problems for small steps). */
 function phaseStep(aRe: number, aIm: number, bRe: number, bIm: number): number {
@@ -89,6 +97,7 @@ export function buildFirmwareScaling(chain: Chain, result: AnalysisResult): Scal
   const fHigh = sig ? sig.fHigh : 1;
   const sensitivity = sig && typeof sig.sensitivity === "number" && sig.sensitivity !== 0 ? sig.sensitivity : null;
   const unit = sig?.unit ?? "";
+  const sourceUnit = (sig ? OUTPUT_UNIT[sig.output] : "V") as FirmwareScaling["sourceUnit"];
 
   for (const path of result.paths) {
     const adcRes = path.adc;
@@ -141,6 +150,7 @@ export function buildFirmwareScaling(chain: Chain, result: AnalysisResult): Scal
         adc: { bits, vinLow, vinHigh, lsb, codeMin: 0, codeMax },
         coupling: dcCoupled ? "dc" : "ac",
         scalingFrequency,
+        sourceUnit,
         gain,
         gainPhaseDeg: phaseDeg,
         zeroInputVolts,
@@ -187,6 +197,9 @@ function lit(v: number): string {
   return /[.e]/.test(t) ? t : `${t}.0`;
 }
 
+/** The word for a source quantity in constant and function names. */
+export const SOURCE_QUANTITY: Readonly<Record<FirmwareScaling["sourceUnit"], string>> = { V: "volts", A: "amps", C: "coulombs" };
+
 /** Comment text safe inside a C block comment. */
 const commentSafe = (s: string) => s.replace(/\*\//g, "* /").replace(/[\r\n]+/g, " ");
 
@@ -205,19 +218,22 @@ export function scalingHeader(list: FirmwareScaling[], revision?: number | null)
   for (const s of list) {
     const p = `CW_${macroName(s.adcId)}`;
     const f = `cw_${macroName(s.adcId).toLowerCase()}`;
+    const unit = s.sourceUnit ?? "V"; // documents stored before sensor sources carry no unit: volts
+    const q = SOURCE_QUANTITY[unit];
+    const Q = q.toUpperCase();
     lines.push("");
     lines.push(`/* ${commentSafe(s.path.join(" -> "))}: ${s.coupling === "dc" ? "DC-coupled, scaled at DC" : `AC-coupled, scaled at ${lit(s.scalingFrequency)} Hz (signal about the resting level)`} */`);
     lines.push(`#define ${p}_BITS ${s.adc.bits}`);
     lines.push(`#define ${p}_CODE_MAX ${s.adc.codeMax}L`);
     lines.push(`#define ${p}_LSB_VOLTS ${lit(s.adc.lsb)}`);
-    lines.push(`#define ${p}_GAIN ${lit(s.gain)} /* V at the converter per V at the source */`);
+    lines.push(`#define ${p}_GAIN ${lit(s.gain)} /* V at the converter per ${unit} at the source */`);
     lines.push(`#define ${p}_ZERO_INPUT_CODE ${s.zeroInputCode}L`);
-    lines.push(`#define ${p}_SOURCE_VOLTS_PER_CODE ${lit(s.sourceVoltsPerCode)}`);
-    lines.push(`#define ${p}_SOURCE_OFFSET_VOLTS ${lit(s.sourceOffsetVolts)}`);
+    lines.push(`#define ${p}_SOURCE_${Q}_PER_CODE ${lit(s.sourceVoltsPerCode)} /* ${unit} at the source per code */`);
+    lines.push(`#define ${p}_SOURCE_OFFSET_${Q} ${lit(s.sourceOffsetVolts)} /* ${unit} */`);
     lines.push(`#define ${p}_GROUP_DELAY_SECONDS ${lit(s.groupDelay)}`);
-    lines.push(`static inline double ${f}_source_volts(int32_t code) { return ${p}_SOURCE_VOLTS_PER_CODE * (double)code + ${p}_SOURCE_OFFSET_VOLTS; }`);
+    lines.push(`static inline double ${f}_source_${q}(int32_t code) { return ${p}_SOURCE_${Q}_PER_CODE * (double)code + ${p}_SOURCE_OFFSET_${Q}; }`);
     if (s.measurand) {
-      lines.push(`/* measurand in ${commentSafe(s.measurand.unit || "its unit")}: sensitivity ${lit(s.measurand.sensitivity)} V per unit */`);
+      lines.push(`/* measurand in ${commentSafe(s.measurand.unit || "its unit")}: sensitivity ${lit(s.measurand.sensitivity)} ${unit} per unit */`);
       lines.push(`#define ${p}_UNITS_PER_CODE ${lit(s.measurand.unitsPerCode)}`);
       lines.push(`#define ${p}_UNIT_OFFSET ${lit(s.measurand.unitOffset)}`);
       lines.push(`static inline double ${f}_measurand(int32_t code) { return ${p}_UNITS_PER_CODE * (double)code + ${p}_UNIT_OFFSET; }`);

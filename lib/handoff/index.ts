@@ -6,7 +6,7 @@ export { buildBom, seriesForTolerance } from "./bom";
 export type { Bom, BomGroup, BomLine, OpAmpGroup } from "./bom";
 export { buildBringUpSheet, defaultTestFrequencies, nominalOf, TEST_FREQUENCY_LIMIT } from "./bring-up";
 export type { BringUpSheet, TestPoint, TestPointAc } from "./bring-up";
-export { buildFirmwareScaling, codeOf, measurandOf, scalingHeader, sourceVoltsOf, SCALING_FORMAT } from "./firmware";
+export { buildFirmwareScaling, codeOf, measurandOf, scalingHeader, sourceVoltsOf, SCALING_FORMAT, SOURCE_QUANTITY } from "./firmware";
 export type { FirmwareScaling, ScalingResult } from "./firmware";
 export { bringUpSpread, withSpread, BRING_UP_SEED, BRING_UP_TRIALS } from "./bring-up-spread";
 export type { BringUpSpread, PointSpread, Range } from "./bring-up-spread";

@@ -115,7 +115,7 @@ describe("hand-off downloads", () => {
     expect(body.scalings).toEqual(want.flatMap((r) => (r.ok ? [JSON.parse(JSON.stringify(r.scaling))] : [])));
     const h = await get(firmwareGet, w.hull, "?format=h");
     expect(h.headers.get("content-disposition")).toMatch(/scaling\.h"/);
-    expect(await h.text()).toMatch(/#define CW_ADC_SOURCE_VOLTS_PER_CODE /);
+    expect(await h.text()).toMatch(/#define CW_ADC_SOURCE_COULOMBS_PER_CODE /);
   });
 
   it("plot data: response and noise tables as CSV", async () => {

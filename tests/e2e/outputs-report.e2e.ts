@@ -66,7 +66,7 @@ describe.skipIf(ctx.skip !== null)("hand-offs: outputs page, printed design repo
     await page.getByTestId("outputs-page").waitFor();
     await screenshot(page, "outputs-page");
     await expect(page.getByTestId("bring-up-table").locator("tbody tr").count()).resolves.toBe(4);
-    await expect(page.getByTestId("scaling-header").textContent()).resolves.toMatch(/#define CW_ADC_SOURCE_VOLTS_PER_CODE/);
+    await expect(page.getByTestId("scaling-header").textContent()).resolves.toMatch(/#define CW_ADC_SOURCE_COULOMBS_PER_CODE/);
     // the sheet's spread from tolerances: a range per test point and the builds and seed said
     await expect(page.getByTestId("spread-dc").count()).resolves.toBe(await page.getByTestId("bring-up-table").locator("tbody tr").count());
     await expect(page.getByTestId("bring-up-spread-note").textContent()).resolves.toMatch(/^Spread from tolerances: 200 builds \(seed 1\)/);

@@ -177,6 +177,25 @@ describe("C header", () => {
     expect(h.match(/#define CW_ADC_GAIN /g)).toHaveLength(1);
   });
 
+  it("names the source quantity by the source's output: volts for a bridge, amperes for a photodiode, coulombs for a piezo in charge mode", () => {
+    const { ballast, turbidity, hull } = demo();
+    const cases: [Chain, "V" | "A" | "C", string][] = [
+      [ballast, "V", "VOLTS"],
+      [turbidity, "A", "AMPS"],
+      [hull, "C", "COULOMBS"],
+    ];
+    for (const [chain, unit, word] of cases) {
+      const s = scalingOf(chain);
+      expect(s.sourceUnit, chain.name).toBe(unit);
+      const h = scalingHeader([s]);
+      expect(h).toContain(`/* V at the converter per ${unit} at the source */`);
+      expect(Number(new RegExp(`#define CW_ADC_SOURCE_${word}_PER_CODE (\\S+)`).exec(h)![1])).toBe(s.sourceVoltsPerCode);
+      expect(Number(new RegExp(`#define CW_ADC_SOURCE_OFFSET_${word} (\\S+)`).exec(h)![1])).toBe(s.sourceOffsetVolts);
+      // the other quantities' names do not appear: firmware cannot read coulombs as volts
+      for (const other of ["VOLTS", "AMPS", "COULOMBS"].filter((w) => w !== word)) expect(h).not.toContain(`_SOURCE_${other}_PER_CODE`);
+    }
+  });
+
   it.skipIf(!gcc)("compiles, and its functions give the same values as the JSON constants", () => {
     const s = scalingOf(withParams(demo().turbidity, "pd", { sensitivity: 1e-8, unit: "NTU" }));
     const dir = mkdtempSync(join(tmpdir(), "cw-header-"));
@@ -189,7 +208,7 @@ describe("C header", () => {
         "int main(void) {",
         "  int32_t c[] = {0, 1, 1489, 4095};",
         "  for (int i = 0; i < 4; i++) {",
-        '    printf("%.17g %.17g\\n", cw_adc_source_volts(c[i]), cw_adc_measurand(c[i]));',
+        '    printf("%.17g %.17g\\n", cw_adc_source_amps(c[i]), cw_adc_measurand(c[i]));',
         "  }",
         "  return 0;",
         "}",
