@@ -7,6 +7,9 @@
  * What counts as a component: every param of a stage whose unit is ohms or farads, except on the nodes
  * that feed the chain (a source's resistance is the sensor's own) and on converters (an ADC's input
  * resistance models the converter). A null value (a non-inverting stage's absent rf or rg) is no part.
+ * Some params stand for more than one part or for none (PARTS_PER_PARAM): the instrumentation amplifier's
+ * rf is two resistors (one per input op-amp) and its rd four (the difference stage), and it is three
+ * op-amps of its one part; a TIA's or charge amp's cin is the op-amp's own input capacitance, no part.
  */
 import type { Chain, ChainNode } from "../chain/types";
 import { PARAM_SPECS } from "../chain/params";
@@ -28,7 +31,7 @@ export interface BomLine {
   tolerance: number;
   nodeId: string;
   stage: string;
-  /** the param it sets (r1, c2, …) */
+  /** the param it sets (r1, c2, …); `rf#1`, `rf#2` where one param is several parts (an in-amp's rf, rd) */
   param: string;
 }
 
@@ -69,15 +72,28 @@ export function seriesForTolerance(tolerance: number): ESeries {
   return "E6";
 }
 
-function componentParams(node: ChainNode): { param: string; type: ComponentType; value: number }[] {
-  const out: { param: string; type: ComponentType; value: number }[] = [];
+/** How many physical parts a param stands for where it is not one (topology in lib/chain/README.md). */
+const PARTS_PER_PARAM: Partial<Record<ChainNode["kind"], Record<string, number>>> = {
+  inAmp: { rf: 2, rd: 4 },
+  transimpedance: { cin: 0 },
+  chargeAmp: { cin: 0 },
+};
+
+/** Op-amps per stage where a stage is more than one (the instrumentation amplifier's A1, A2, A3). */
+const OPAMPS_PER_STAGE: Partial<Record<ChainNode["kind"], number>> = { inAmp: 3 };
+
+/** One entry per physical part; a param that is several parts gives `rf#1`, `rf#2`, … as its param. */
+function componentParams(node: ChainNode): { param: string; source: string; type: ComponentType; value: number }[] {
+  const out: { param: string; source: string; type: ComponentType; value: number }[] = [];
   const specs = PARAM_SPECS[node.kind] ?? {};
   for (const [param, spec] of Object.entries(specs)) {
     const unit = spec.rule?.unit;
     if (unit !== "ohm" && unit !== "farad") continue;
     const value = (node.params as unknown as Record<string, unknown>)[param];
     if (typeof value !== "number" || !(value > 0)) continue;
-    out.push({ param, type: unit === "ohm" ? "resistor" : "capacitor", value });
+    const n = PARTS_PER_PARAM[node.kind]?.[param] ?? 1;
+    for (let k = 1; k <= n; k++)
+      out.push({ param: n === 1 ? param : `${param}#${k}`, source: param, type: unit === "ohm" ? "resistor" : "capacitor", value });
   }
   return out;
 }
@@ -92,7 +108,7 @@ export function buildBom(chain: Chain): Bom {
     for (const c of componentParams(node)) {
       // a per-part tolerance (tolerances.overrides["nodeId.param"]) wins over the chain's default
       const overrides = (chain.tolerances as { overrides?: Record<string, number> }).overrides ?? {};
-      const tolerance = overrides[`${node.id}.${c.param}`] ?? (c.type === "resistor" ? chain.tolerances.resistor : chain.tolerances.capacitor);
+      const tolerance = overrides[`${node.id}.${c.source}`] ?? (c.type === "resistor" ? chain.tolerances.resistor : chain.tolerances.capacitor);
       const series = seriesForTolerance(tolerance);
       count[c.type] += 1;
       lines.push({
@@ -108,7 +124,6 @@ export function buildBom(chain: Chain): Bom {
       });
     }
     if (isOpAmpKind(node.kind)) {
-      u += 1;
       const key = ("part" in node ? node.part : null) ?? null;
       const mapKey = key ?? "\u0000ideal";
       let g = opAmpByPart.get(mapKey);
@@ -117,9 +132,12 @@ export function buildBom(chain: Chain): Bom {
         g = { part: key, model: key ? (label ? `${label} (${key})` : key) : "ideal op-amp (no model chosen)", refs: [], stages: [], quantity: 0 };
         opAmpByPart.set(mapKey, g);
       }
-      g.refs.push(`U${u}`);
+      for (let k = OPAMPS_PER_STAGE[node.kind] ?? 1; k > 0; k--) {
+        u += 1;
+        g.refs.push(`U${u}`);
+        g.quantity += 1;
+      }
       g.stages.push(nodeTitle(node));
-      g.quantity += 1;
     }
   }
   return { lines, groups: groupByValue(lines), opAmps: [...opAmpByPart.values()] };

@@ -55,6 +55,35 @@ describe("buildBom on the demo chains", () => {
     expect(t[0].model).toContain("Precision CMOS");
   });
 
+  it("an instrumentation amplifier is three op-amps, two rf and four rd (its topology in lib/chain/README.md)", () => {
+    const { ballast } = demo();
+    const amp = ballast.nodes.find((n) => n.kind === "inAmp")!;
+    const bom = buildBom(ballast);
+    const mine = bom.lines.filter((l) => l.nodeId === amp.id);
+    expect(mine.map((l) => l.param)).toEqual(["rg", "rf#1", "rf#2", "rd#1", "rd#2", "rd#3", "rd#4"]);
+    for (const l of mine) expect(l.value).toBe((amp.params as unknown as Record<string, number>)[l.param.replace(/#\d$/, "")]);
+    const g = bom.opAmps.find((x) => x.stages.some((t) => t.includes(`(${amp.id})`)))!;
+    // the in-amp's three and the low-pass's one: designators run on without gaps
+    expect(bom.opAmps.flatMap((x) => x.refs)).toEqual(["U1", "U2", "U3", "U4"]);
+    expect(g.refs).toHaveLength(3);
+  });
+
+  it("an override of an in-amp's rd applies to all four of its resistors", () => {
+    const { ballast } = demo();
+    const amp = ballast.nodes.find((n) => n.kind === "inAmp")!;
+    const copy = structuredClone(ballast);
+    (copy.tolerances as { overrides?: Record<string, number> }).overrides = { [`${amp.id}.rd`]: 0.0001 };
+    const rd = buildBom(copy).lines.filter((l) => l.nodeId === amp.id && l.param.startsWith("rd"));
+    expect(rd.map((l) => l.tolerance)).toEqual([0.0001, 0.0001, 0.0001, 0.0001]);
+  });
+
+  it("a TIA's cin (the op-amp's input capacitance) is no part even when set", () => {
+    const { turbidity } = demo();
+    const tia = turbidity.nodes.find((n) => n.kind === "transimpedance")!;
+    const bom = buildBom(withParams(turbidity, tia.id, { cin: 7e-12 }));
+    expect(bom.lines.filter((l) => l.nodeId === tia.id).map((l) => l.param)).toEqual(["rf", "cf"]);
+  });
+
   it("a stage with no model is listed as an ideal op-amp, not dropped", () => {
     const { hull } = demo();
     const copy = structuredClone(hull);
