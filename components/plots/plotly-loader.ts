@@ -9,7 +9,7 @@
 export interface PlotlyLike {
   react(el: HTMLElement, data: unknown[], layout: unknown, config?: unknown): Promise<unknown>;
   purge(el: HTMLElement): void;
-  Plots: { resize(el: HTMLElement): void };
+  Plots: { resize(el: HTMLElement): Promise<unknown> | void };
 }
 
 let loading: Promise<PlotlyLike> | null = null;

@@ -127,7 +127,9 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
       // the SVG has a fixed size: drawn again at the new one
       if (box && svgEl.current?.firstChild && figRef.current) svgEl.current.innerHTML = figureSvg(figRef.current, box.width, box.height);
       // Plotly follows the window's size by itself, not its box's (the measured-response list unfolding above it)
-      else if (plotly.current && (node as { _fullLayout?: unknown })._fullLayout) plotly.current.Plots.resize(node);
+      // (only while displayed: a hidden tab's plot has no box, and Plotly refuses to resize it)
+      else if (plotly.current && (node as { _fullLayout?: unknown })._fullLayout && box && box.width > 0 && box.height > 0)
+        void Promise.resolve(plotly.current.Plots.resize(node)).catch(() => undefined);
     });
     watch.observe(node);
     return () => watch.disconnect();

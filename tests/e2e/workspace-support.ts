@@ -68,13 +68,19 @@ export async function waitForSaveState(page: Page, state: string, timeout = 15_0
  */
 export async function waitForPlot(page: Page): Promise<void> {
   const plot = page.getByTestId("response-plot");
-  if (await plot.isVisible()) await plot.hover({ position: { x: 4, y: 4 } });
+  let pointed = false;
   await expect
     .poll(
-      () =>
-        page.evaluate(() =>
+      async () => {
+        // a page still opening has no plot to point at yet: point once it is there (Plotly waits for that)
+        if (!pointed && (await plot.isVisible())) {
+          await plot.hover({ position: { x: 4, y: 4 } });
+          pointed = true;
+        }
+        return page.evaluate(() =>
           [...document.querySelectorAll('[data-testid="plot-area"][data-ready="1"] .scatterlayer path.js-line')].some((p) => /^M[^L]+L/.test(p.getAttribute("d") ?? "")),
-        ),
+        );
+      },
       { timeout: 30_000 },
     )
     .toBe(true);
