@@ -68,18 +68,22 @@ export async function waitForSaveState(page: Page, state: string, timeout = 15_0
  */
 export async function waitForPlot(page: Page): Promise<void> {
   const plot = page.getByTestId("response-plot");
-  let pointed = false;
+  let step = 0;
+  const drawn = () =>
+    page.evaluate(() =>
+      [...document.querySelectorAll('[data-testid="plot-area"][data-ready="1"] .scatterlayer path.js-line')].some((p) => /^M[^L]+L/.test(p.getAttribute("d") ?? "")),
+    );
   await expect
     .poll(
       async () => {
-        // a page still opening has no plot to point at yet: point once it is there (Plotly waits for that)
-        if (!pointed && (await plot.isVisible())) {
-          await plot.hover({ position: { x: 4, y: 4 } });
-          pointed = true;
+        if (await drawn()) return true;
+        // a page still opening may not listen for the pointer yet: move over the plot again on every try
+        // (a new position each time, so the page sees a pointer move), until Plotly has drawn
+        if (await plot.isVisible()) {
+          step = (step + 1) % 4;
+          await plot.hover({ position: { x: 4 + step, y: 4 + step } }).catch(() => undefined);
         }
-        return page.evaluate(() =>
-          [...document.querySelectorAll('[data-testid="plot-area"][data-ready="1"] .scatterlayer path.js-line')].some((p) => /^M[^L]+L/.test(p.getAttribute("d") ?? "")),
-        );
+        return drawn();
       },
       { timeout: 30_000 },
     )
