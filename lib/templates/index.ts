@@ -29,6 +29,14 @@ const LOW_NOISE_BIPOLAR: Part = {
   swingLow: 1.2, swingHigh: 1.2, inputLow: 1.5, inputHigh: 1.5,
 };
 
+/** FET inputs: picoamp bias current, so a gigohm feedback resistor (a charge amplifier's DC path) stays near 0 V. */
+const LOW_NOISE_JFET: Part = {
+  label: "Low-noise FET-input (class figures)",
+  gbw: 8e6, aol: 3e5, slewRate: 1.5e7, vos: 5e-4, ib: 5e-12,
+  en: 8e-9, in: 3e-15, enCorner: 50, inCorner: 0,
+  swingLow: 1.0, swingHigh: 1.0, inputLow: 2.5, inputHigh: 0.5,
+};
+
 const RRIO_CMOS: Part = {
   label: "Rail-to-rail CMOS (class figures)",
   gbw: 2e6, aol: 3e5, slewRate: 1e6, vos: 1.5e-4, ib: 1e-12,
@@ -48,23 +56,27 @@ export const TEMPLATES: ChainTemplate[] = [
   {
     key: "hull-vibration",
     title: "Hull vibration channel",
-    summary: "Accelerometer behind a charge converter, AC-coupled, gain of about 5, second-order anti-alias, 16-bit ADC.",
+    summary: "Piezo accelerometer (±200 pC) into a charge amplifier of 330 pF, gain of 4.6, second-order anti-alias, 16-bit ADC on ±4.096 V.",
     make: () => ({
       format: CHAIN_FORMAT,
       name: "Hull vibration channel",
-      notes: "Keelwater Instruments example: accelerometer on the aft frame, 2 Hz to 2 kHz.",
+      notes:
+        "Keelwater Instruments example: piezo accelerometer on the aft frame, 10 pC/g over ±20 g, 2 Hz to 2 kHz, read as a charge. " +
+        "The charge amplifier gives −1/cf = −3.03 V/nC, so ±200 pC is ±0.61 V; its low corner 1/(2π·rf·cf) ≈ 0.48 Hz sits well under the band. " +
+        "It needs a FET-input op-amp: a bipolar part's bias current through the 1 GΩ feedback resistor would put its output on a rail. " +
+        "The gain of 4.6 brings the peak to about ±2.8 V: two thirds of the converter's range, with a volt to spare inside each stage's ±3.8 V swing.",
       analysis: { ...BASE_ANALYSIS },
-      parts: { p1: { ...LOW_NOISE_BIPOLAR } },
+      parts: { p1: { ...LOW_NOISE_BIPOLAR }, p2: { ...LOW_NOISE_JFET } },
       nodes: [
-        { id: "src", kind: "source", label: "Accelerometer", params: { dc: 0, dcSpread: 0.005, amplitude: 0.2, fLow: 2, fHigh: 2000, resistance: 100, noiseDensity: 0, safety: "low-voltage" }, position: { x: 40, y: 40 } },
-        { id: "rc1", kind: "rcHighpass", label: "AC coupling", params: { c: 1e-6, r: 100e3, vbias: 0 }, position: { x: 260, y: 40 } },
-        { id: "u1", kind: "noninverting", label: "Gain", params: { rf: 39e3, rg: 10e3, vref: 0 }, part: "p1", rails: { low: -5, high: 5 }, position: { x: 480, y: 40 } },
+        { id: "src", kind: "piezo", label: "Accelerometer", params: { amplitude: 200e-12, fLow: 2, fHigh: 2000, capacitance: 1e-9, leakage: 10e9, safety: "low-voltage", sensitivity: 10e-12, unit: "g" }, position: { x: 40, y: 40 } },
+        { id: "ca1", kind: "chargeAmp", label: "Charge amplifier", params: { cf: 330e-12, rf: 1e9, vref: 0, cin: 0 }, part: "p2", rails: { low: -5, high: 5 }, position: { x: 260, y: 40 } },
+        { id: "u1", kind: "noninverting", label: "Gain", params: { rf: 36e3, rg: 10e3, vref: 0 }, part: "p1", rails: { low: -5, high: 5 }, position: { x: 480, y: 40 } },
         { id: "u2", kind: "sallenKeyLowpass", label: "Anti-alias", params: { r1: 4.7e3, r2: 4.7e3, c1: 10e-9, c2: 4.7e-9, vref: 0 }, part: "p1", rails: { low: -5, high: 5 }, position: { x: 700, y: 40 } },
         { id: "adc1", kind: "adc", params: { bits: 16, sampleRate: 25e3, vinLow: -4.096, vinHigh: 4.096, inputResistance: null }, position: { x: 920, y: 40 } },
       ],
       edges: [
-        { from: "src", to: "rc1" },
-        { from: "rc1", to: "u1" },
+        { from: "src", to: "ca1" },
+        { from: "ca1", to: "u1" },
         { from: "u1", to: "u2" },
         { from: "u2", to: "adc1" },
       ],
@@ -73,16 +85,19 @@ export const TEMPLATES: ChainTemplate[] = [
   {
     key: "ballast-bridge",
     title: "Ballast-tank pressure bridge",
-    summary: "Bridge with a small offset, gain of 76, lossy-integrator low-pass and an RC at the converter pin.",
+    summary: "350 Ω bridge, 20 mV full scale ±3 mV zero balance, in-amp of gain 135 with its reference taking out mid-scale, lossy-integrator low-pass, RC at the converter pin.",
     make: () => ({
       format: CHAIN_FORMAT,
       name: "Ballast-tank pressure bridge",
-      notes: "Keelwater Instruments example: slow pressure, DC to 10 Hz; the bridge offset rides through the gain.",
+      notes:
+        "Keelwater Instruments example: slow tank pressure, DC to 10 Hz, from a 350 Ω bridge at 10 V excitation (2 mV/V: 0 to 20 mV from empty to full), ±0.3 mV/V zero balance. " +
+        "The in-amp's gain 1 + 2·25 kΩ/374 Ω ≈ 135 turns 10 mV ± 13 mV into ±1.75 V once its reference, −1.35 V, takes out the mid-scale 1.35 V, so the ±2.5 V converter sees about 70 % of its range. " +
+        "Set the reference to 0 V to see the converter's range check fire: the mid-scale 1.35 V then rides through and takes the input about 0.6 V past −2.5 V.",
       analysis: { ...BASE_ANALYSIS, fMin: 0.01, fMax: 1e5 },
       parts: { p1: { ...GENERAL_BIPOLAR }, p2: { ...LOW_NOISE_BIPOLAR } },
       nodes: [
-        { id: "src", kind: "source", label: "Pressure bridge", params: { dc: 0.002, dcSpread: 0.003, amplitude: 0.02, fLow: 0, fHigh: 10, resistance: 350, noiseDensity: 0, safety: "low-voltage" }, position: { x: 40, y: 40 } },
-        { id: "u1", kind: "noninverting", label: "Bridge gain", params: { rf: 75e3, rg: 1e3, vref: 0 }, part: "p2", rails: { low: -12, high: 12 }, position: { x: 260, y: 40 } },
+        { id: "src", kind: "bridge", label: "Pressure bridge", params: { excitation: 10, fullScale: 0.002, loadLow: 0, loadHigh: 1, offset: 3e-4, resistance: 350, vcm: null, fLow: 0, fHigh: 10, noiseDensity: 0, safety: "low-voltage" }, position: { x: 40, y: 40 } },
+        { id: "u1", kind: "inAmp", label: "Bridge in-amp", params: { rg: 374, rf: 25e3, rd: 10e3, vref: -1.35, cmrrDb: 100 }, part: "p2", rails: { low: -12, high: 12 }, position: { x: 260, y: 40 } },
         { id: "u2", kind: "lossyIntegrator", label: "Low-pass", params: { r1: 10e3, r2: 10e3, c2: 1e-6, vref: 0 }, part: "p1", rails: { low: -12, high: 12 }, position: { x: 480, y: 40 } },
         { id: "rc1", kind: "rcLowpass", label: "Pin filter", params: { r: 1e3, c: 1e-6 }, position: { x: 700, y: 40 } },
         { id: "adc1", kind: "adc", params: { bits: 16, sampleRate: 1000, vinLow: -2.5, vinHigh: 2.5, inputResistance: null }, position: { x: 920, y: 40 } },

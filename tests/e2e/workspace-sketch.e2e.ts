@@ -248,8 +248,8 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
     const { context, page } = await newSession(browser);
     await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
     await page.waitForURL(/\/chains$/);
-    // the bridge example with an ideal op-amp in its first stage: a gain change moves its magnitude
-    // and leaves its phase (0°) exactly as it was
+    // the bridge example with ideal op-amps in its in-amp: a gain change moves its magnitude and leaves
+    // its phase (0°) exactly as it was
     const doc = findTemplate("ballast-bridge")!.make();
     for (const n of doc.nodes) if (n.id === "u1") delete (n as { part?: string }).part;
     const res = await page.request.post("/api/chains", { data: { name: `Ideal first stage ${Date.now()}`, document: doc } });
@@ -268,8 +268,8 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
     const before = await lines();
     expect(before.map((l) => l.axis)).toEqual(["y", "y2"]);
     await page.evaluate(() => {
-      const input = document.querySelector<HTMLInputElement>("#f-rf")!;
-      Object.getOwnPropertyDescriptor(HTMLInputElement.prototype, "value")!.set!.call(input, "76k"); // 75k → 76k: same dB range
+      const input = document.querySelector<HTMLInputElement>("#f-rg")!;
+      Object.getOwnPropertyDescriptor(HTMLInputElement.prototype, "value")!.set!.call(input, "378"); // 374 → 378 Ω: gain 135 → 133, same dB range
       input.dispatchEvent(new Event("input", { bubbles: true }));
     });
     await page.waitForTimeout(1000); // past the moment Plotly catches up

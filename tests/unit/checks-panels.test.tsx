@@ -11,10 +11,10 @@ import { findTemplate } from "@/lib/templates";
 
 afterEach(cleanup);
 
-/** The bridge example with its second stage's gain raised so far that it and the converter clip. */
+/** The bridge example with its in-amp's gain raised so far that it, the stage after it and the converter clip. */
 function clippingStore() {
   const doc = findTemplate("ballast-bridge")!.make();
-  doc.nodes[1].params.rf = 1e6; // gain 1001 on a 2 mV ± 3 mV offset
+  doc.nodes[1].params.rf = 1e6; // gain 1 + 2·1 MΩ/374 Ω ≈ 5350 on the bridge's 10 mV ± 3 mV at DC
   const store = createEditorStore({ doc, chainId: "c" });
   store.getState().actions.setLive(analyseDraft(store.getState().doc, 1));
   return store;
@@ -76,7 +76,7 @@ describe("HeadroomTable", () => {
     const m = (id: string) => Math.min(peak(id).min - range(id).low, range(id).high - peak(id).max);
     const sorted = rows() as string[];
     expect([...sorted].sort((a, b) => m(a) - m(b))).toEqual(sorted);
-    expect(sorted).toEqual(["adc1", "u2", "u1"]); // the converter, driven 20 V past its ±2.5 V range, first
+    expect(sorted).toEqual(["adc1", "u2", "u1"]); // the converter, driven about 120 V past its ±2.5 V range, first
     expect(screen.getByRole("columnheader", { name: "Margin" }).getAttribute("aria-sort")).toBe("ascending");
     fireEvent.click(margin);
     expect(rows()).toEqual([...sorted].reverse());

@@ -26,9 +26,9 @@ describe("startAnalysis", () => {
     await vi.waitFor(() => expect(store.getState().live?.stageById.u1).toBeDefined());
     expect(published[0]).toBeNull();
     await vi.waitFor(() => expect(store.getState().live!.adcById.adc1.snrDb).not.toBeNull());
-    store.getState().actions.setParam("u1", "rf", 150e3);
+    store.getState().actions.setParam("u1", "rg", 1e3);
     await vi.waitFor(() => expect(store.getState().live!.doc).toBe(store.getState().doc));
-    expect(store.getState().live!.stageById.u1.dcGain).toBeCloseTo(151, 0); // 1 + rf/rg, finite aol shaves a little
+    expect(store.getState().live!.stageById.u1.dcGain).toBeCloseTo(51, 0); // the in-amp's 1 + 2·rf/rg, finite aol shaves a little
     driver.stop();
   });
 
@@ -49,10 +49,10 @@ describe("startAnalysis", () => {
     const store = createEditorStore({ doc: findTemplate("ballast-bridge")!.make(), chainId: "c" });
     const driver = startAnalysis(store, { quick: inlineRunner(), full: counting() }, { fullDelayMs: 10_000 });
     expect(store.getState().live?.doc).toBe(store.getState().doc); // the opening draft, analysed at once
-    store.getState().actions.setParam("u1", "rf", 150e3);
+    store.getState().actions.setParam("u1", "rg", 1e3);
     // no await in between: the edit and its analysis land together
     expect(store.getState().live!.doc).toBe(store.getState().doc);
-    expect(store.getState().live!.stageById.u1.dcGain).toBeCloseTo(151, 0);
+    expect(store.getState().live!.stageById.u1.dcGain).toBeCloseTo(51, 0);
     driver.stop();
   });
 

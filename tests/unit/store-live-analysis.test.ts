@@ -89,9 +89,12 @@ describe("assembleLive", () => {
 
   it("flags the clipping stage of a chain with a large DC gain", () => {
     const doc = bridge();
-    doc.nodes[1].params.rf = 1e6; // gain 1001 on a 2 mV ± 3 mV bridge offset: about 2 to 5 V at DC, on ±12 V
-    doc.nodes[2].params.r2 = 100e3; // then ×10: well past the rails
+    // the in-amp's reference back at 0 V: its gain of 135 carries the bridge's 10 mV ± 3 mV mid-scale
+    // through as 0.9 to 1.8 V at DC, still fine on ±12 V
+    doc.nodes[1].params.vref = 0;
+    doc.nodes[2].params.r2 = 100e3; // then ×10: −18 to −9 V at DC, and the signal peak takes it past −10.5 V
     const live = analyseDraft(doc);
+    expect(live.stageById.u1.status).toBe("ok");
     expect(live.stageById.u2.status).toBe("clip");
     expect(live.warningsByNode.u2.some((w) => w.code === "rail-clip")).toBe(true);
   });
