@@ -24,7 +24,7 @@
 import type { Chain, ChainNode, NodeKind, OpAmpNode } from "../chain/types";
 import { TWO_PI } from "./constants";
 import { openLoop, type OpenLoop } from "./open-loop";
-import { limitAtZero } from "./poly";
+import { limitAtZero, PolyPool, withPolyPool } from "./poly";
 import { sourceSignal } from "./sensors";
 import { NO_INPUT, stageModel, type InternalSourceType, type StageInput, type StageModel } from "./stage-models";
 import { buildTopology, isOpAmpKind, type Topology } from "./topology";
@@ -79,6 +79,16 @@ export interface SweepResult {
   omega: Float64Array;
 }
 
+export interface RetuneOptions {
+  /**
+   * Build the stage models into the buffers of the previous reusing retune (`PolyPool`, poly.ts) instead of
+   * new ones: the same numbers without the allocations, for a run of many builds of one chain (the
+   * tolerance spread). `models` and `openLoops` from an earlier retune are then overwritten: read them
+   * from the compiled chain after each retune, never keep them.
+   */
+  reuse?: boolean;
+}
+
 export interface CompiledChain {
   /** the chain whose values are loaded (the last `retune`, else the compiled one) */
   readonly chain: Chain;
@@ -87,7 +97,7 @@ export interface CompiledChain {
    * draw, a value edited in the workspace) without rebuilding the structure. Throws if the structure
    * differs (then compile again).
    */
-  retune(chain: Chain): void;
+  retune(chain: Chain, opts?: RetuneOptions): void;
   readonly topology: Topology;
   readonly nodeIds: string[];
   readonly kinds: NodeKind[];
@@ -123,6 +133,8 @@ class FastChain implements CompiledChain {
   readonly models: (StageModel | null)[];
   readonly openLoops: (OpenLoop | null)[];
   private current: Chain;
+  /** buffers of the stage models for `retune(…, { reuse: true })` */
+  private readonly pool = new PolyPool();
 
   // structure (fixed by the graph and the node kinds)
   private readonly n: number; // node count; point n is the EMF
@@ -385,36 +397,36 @@ class FastChain implements CompiledChain {
           this.openLoops[i] = ol;
           if (first) this.srcVals[i] = new Float64Array(6 * model.sources.length);
           for (const s of model.sources) addSource({ element: s.element, type: s.type, resistance: s.resistance });
-          const polys = [model.den, model.vin.vo, model.vin.iin];
-          polys.forEach((p, j) => {
-            // the kernel evaluates quartics; a kind with a higher degree needs the kernel extended
-            if (p.length > KC) throw new Error(`${node.kind}: closed form of degree ${p.length - 1} > ${KC - 1}`);
-            for (let c = 0; c < KC; c++) this.coef[3 * KC * q + KC * j + c] = c < p.length ? p[c] : 0;
-          });
+          // the kernel evaluates quartics; a kind with a higher degree needs the kernel extended
+          const o = 3 * KC * q;
+          this.kernelPoly(node.kind, o, model.den);
+          this.kernelPoly(node.kind, o + KC, model.vin.vo);
+          this.kernelPoly(node.kind, o + 2 * KC, model.vin.iin);
           this.limH[i] = limitAtZero(model.vin.vo, model.den);
           this.limY[i] = limitAtZero(model.vin.iin, model.den);
           // V+/Vin, then vo, iin, p of each source, flat; a retune refills the arrays when the sizes allow
           const count = 1 + 3 * model.sources.length;
-          const polyAt = (j: number) => {
-            if (j === 0) return model.vin.p;
-            const x = model.sources[((j - 1) / 3) | 0];
-            return (j - 1) % 3 === 0 ? x.vo : (j - 1) % 3 === 1 ? x.iin : x.p;
-          };
-          let size = 0;
-          for (let j = 0; j < count; j++) size += polyAt(j).length;
+          let size = model.vin.p.length;
+          for (const x of model.sources) size += x.vo.length + x.iin.length + x.p.length;
           const old = this.stagePolys[i];
           const fits = old !== null && old.coef.length === size && old.lim.length === count;
           const coef = fits ? old.coef : new Float64Array(size);
           const off = fits ? old.off : new Int32Array(2 * count);
           const lim = fits ? old.lim : new Float64Array(count);
           let at = 0;
-          for (let j = 0; j < count; j++) {
-            const x = polyAt(j);
-            coef.set(x, at);
+          let j = 0;
+          const put = (x: Float64Array) => {
+            for (let c = 0; c < x.length; c++) coef[at + c] = x[c];
             off[2 * j] = at;
             at += x.length;
             off[2 * j + 1] = at;
-            lim[j] = limitAtZero(x, model.den);
+            lim[j++] = limitAtZero(x, model.den);
+          };
+          put(model.vin.p);
+          for (const x of model.sources) {
+            put(x.vo);
+            put(x.iin);
+            put(x.p);
           }
           this.stagePolys[i] = { den: model.den, coef, off, lim };
           q++;
@@ -424,8 +436,15 @@ class FastChain implements CompiledChain {
     this.current = chain;
   }
 
-  retune(chain: Chain): void {
-    this.loadValues(chain, false);
+  retune(chain: Chain, opts?: RetuneOptions): void {
+    if (opts?.reuse) withPolyPool(this.pool, () => this.loadValues(chain, false));
+    else this.loadValues(chain, false);
+  }
+
+  /** A closed-form polynomial into the kernel's coefficients at `o` (KC of them, zero-padded). */
+  private kernelPoly(kind: string, o: number, p: Float64Array): void {
+    if (p.length > KC) throw new Error(`${kind}: closed form of degree ${p.length - 1} > ${KC - 1}`);
+    for (let c = 0; c < KC; c++) this.coef[o + c] = c < p.length ? p[c] : 0;
   }
 
   /** What a stage wired straight to a sensor source takes over from it (sensors.ts). */
@@ -536,6 +555,8 @@ class FastChain implements CompiledChain {
       const nk = kk.length;
       const a = valA[i];
       const c = valB[i];
+      // 1/r once per section, not per point (the same quotient)
+      const ga = 1 / a;
       for (let k = 0; k < nf; k++) {
         let lr = 0;
         let li = 0;
@@ -549,17 +570,17 @@ class FastChain implements CompiledChain {
         let ar: number;
         let ai: number;
         if (r === ROLE_RC_LP) {
-          gr = 1 / a;
+          gr = ga;
           gi = 0;
           ar = lr;
           ai = li + W[k] * c;
         } else if (r === ROLE_RC_HP) {
           gr = 0;
           gi = W[k] * c;
-          ar = lr + 1 / a;
+          ar = lr + ga;
           ai = li;
         } else {
-          gr = 1 / a;
+          gr = ga;
           gi = 0;
           ar = lr;
           ai = li;
@@ -894,10 +915,13 @@ class FastChain implements CompiledChain {
       const hi = res.indIm[i];
       const cr = res.cumRe[i];
       const ci = res.cumIm[i];
+      // Infinity·0 and NaN·0 are NaN: flags values that are not finite (in the same pass as the product)
       if (i === 0) {
         cr.set(hr);
         ci.set(hi);
+        for (let k = 0; k < nf; k++) if (cr[k] * 0 + ci[k] * 0 !== 0) pole[k] = 1;
       } else if (role[i] === ROLE_ADC) {
+        // the converter's input pin is its parent's output: already flagged
         cr.set(res.cumRe[parent[i]]);
         ci.set(res.cumIm[parent[i]]);
       } else {
@@ -906,12 +930,13 @@ class FastChain implements CompiledChain {
         for (let k = 0; k < nf; k++) {
           const a = pr[k];
           const b = pi[k];
-          cr[k] = a * hr[k] - b * hi[k];
-          ci[k] = a * hi[k] + b * hr[k];
+          const x = a * hr[k] - b * hi[k];
+          const y = a * hi[k] + b * hr[k];
+          cr[k] = x;
+          ci[k] = y;
+          if (x * 0 + y * 0 !== 0) pole[k] = 1;
         }
       }
-      // Infinity·0 and NaN·0 are NaN: flags values that are not finite
-      for (let k = 0; k < nf; k++) if (cr[k] * 0 + ci[k] * 0 !== 0) pole[k] = 1;
     }
     return res;
   }

@@ -12,7 +12,78 @@ export const ONE: Poly = new Float64Array([1]);
 /** p(s) = s */
 export const S: Poly = new Float64Array([0, 1]);
 
+/**
+ * Buffers for the polynomials built while a pool is in use (`withPolyPool`): the k-th polynomial made
+ * takes the k-th buffer of the previous use when its length matches, else a new one that replaces it.
+ * Rebuilding the same closed forms with other values (a stage of the same shape, a Monte Carlo build) so
+ * makes the same polynomials in the same order into the same buffers: the arithmetic is unchanged, only
+ * the allocations go. What was built in the previous use is overwritten, so nothing from it may be kept.
+ */
+export class PolyPool {
+  private readonly bufs: Float64Array[] = [];
+  private at = 0;
+
+  /** a buffer of `len` coefficients (contents: whatever the previous use left; callers write every one) */
+  take(len: number): Float64Array {
+    const b = this.bufs[this.at];
+    if (b !== undefined && b.length === len) {
+      this.at++;
+      return b;
+    }
+    const fresh = new Float64Array(len);
+    this.bufs[this.at++] = fresh;
+    return fresh;
+  }
+
+  rewind(): void {
+    this.at = 0;
+  }
+
+  /** buffers held (for tests) */
+  get size(): number {
+    return this.bufs.length;
+  }
+}
+
+let pool: PolyPool | null = null;
+
+/** Runs `fn` with every polynomial it builds taken from `p` (rewound first); see PolyPool. */
+export function withPolyPool<T>(p: PolyPool, fn: () => T): T {
+  const prev = pool;
+  pool = p;
+  p.rewind();
+  try {
+    return fn();
+  } finally {
+    pool = prev;
+  }
+}
+
+/** scratch for a result before its length is known (the pooled path), its first `len` values zeroed */
+let scratch = new Float64Array(16);
+function zeroedScratch(len: number): Float64Array {
+  if (len > scratch.length) scratch = new Float64Array(2 * len);
+  // a loop: typed-array fill costs more than this for a few coefficients
+  for (let i = 0; i < len; i++) scratch[i] = 0;
+  return scratch;
+}
+
+/** The first `len` values of `src` with trailing exact zeros dropped (at least one), as a pooled buffer. */
+function pooled(src: Float64Array, len: number): Poly {
+  let n = len;
+  while (n > 1 && src[n - 1] === 0) n--;
+  const out = pool!.take(n);
+  for (let i = 0; i < n; i++) out[i] = src[i];
+  return out;
+}
+
 export function poly(...coeffs: number[]): Poly {
+  if (pool) {
+    if (!coeffs.length) return pooled(ZERO, 1);
+    const t = zeroedScratch(coeffs.length);
+    for (let i = 0; i < coeffs.length; i++) t[i] = coeffs[i];
+    return pooled(t, coeffs.length);
+  }
   return trim(new Float64Array(coeffs.length ? coeffs : [0]));
 }
 
@@ -26,27 +97,29 @@ function trim(p: Poly): Poly {
 export function add(...ps: Poly[]): Poly {
   let len = 1;
   for (const p of ps) len = Math.max(len, p.length);
-  const out = new Float64Array(len);
+  const out = pool ? zeroedScratch(len) : new Float64Array(len);
   for (const p of ps) for (let i = 0; i < p.length; i++) out[i] += p[i];
-  return trim(out);
+  return pool ? pooled(out, len) : trim(out);
 }
 
 export function scale(p: Poly, k: number): Poly {
-  const out = new Float64Array(p.length);
+  const out = pool ? zeroedScratch(p.length) : new Float64Array(p.length);
   for (let i = 0; i < p.length; i++) out[i] = p[i] * k;
-  return trim(out);
+  return pool ? pooled(out, p.length) : trim(out);
 }
 
 export function mul(...ps: Poly[]): Poly {
   let acc: Poly = ONE;
   for (const p of ps) {
-    const out = new Float64Array(acc.length + p.length - 1);
+    const len = acc.length + p.length - 1;
+    // pooled: the product in the scratch (no operand is ever the scratch), then into its own buffer
+    const out = pool ? zeroedScratch(len) : new Float64Array(len);
     for (let i = 0; i < acc.length; i++) {
       const a = acc[i];
       if (a === 0) continue;
       for (let j = 0; j < p.length; j++) out[i + j] += a * p[j];
     }
-    acc = trim(out);
+    acc = pool ? pooled(out, len) : trim(out);
   }
   return acc;
 }

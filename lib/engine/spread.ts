@@ -187,13 +187,20 @@ function draw(rng: () => number, t: number, distribution: SpreadDistribution): n
 // ---------------------------------------------------------------------------------------------------------
 // Streaming quantile (P², Jain and Chlamtac 1985)
 
-/** P² estimators of one quantile at many points at once (struct of arrays, five markers per point). */
+/**
+ * P² estimators of one quantile at many points at once (struct of arrays, five markers per point).
+ * The desired marker positions n′ depend only on how many observations a point has had, so they are kept
+ * once per count for all points (`desired`, filled by the same repeated additions of dn), not per point.
+ */
 export class P2Quantiles {
   private readonly q: Float64Array;
   private readonly n: Float64Array;
-  private readonly np: Float64Array;
   private readonly count: Int32Array;
   private readonly dn: number[];
+  /** n′ of markers 1–3 after an observation that found `c` before it: entries 3c … 3c + 2 (c ≥ 5) */
+  private desired = new Float64Array(0);
+  /** counts filled in `desired` so far (entries up to 3·filled) */
+  private filled = 0;
 
   constructor(
     readonly p: number,
@@ -201,15 +208,59 @@ export class P2Quantiles {
   ) {
     this.q = new Float64Array(5 * size);
     this.n = new Float64Array(5 * size);
-    this.np = new Float64Array(5 * size);
     this.count = new Int32Array(size);
     this.dn = [0, p / 2, p, (1 + p) / 2, 1];
+  }
+
+  /** Extends `desired` to count c: n′ starts at (2p, 4p, 2 + 2p) with the fifth observation, then adds dn each time. */
+  private desiredUpTo(c: number): void {
+    if (c < this.filled) return;
+    let t = this.desired;
+    if (3 * (c + 1) > t.length) {
+      const grown = new Float64Array(Math.max(3 * (c + 1), 2 * t.length, 3 * 64));
+      grown.set(t.subarray(0, 3 * this.filled));
+      this.desired = t = grown;
+    }
+    const p = this.p;
+    const d1 = this.dn[1];
+    const d2 = this.dn[2];
+    const d3 = this.dn[3];
+    for (let k = this.filled; k <= c; k++) {
+      if (k < 5) continue;
+      // the n′ an observation at count k works with: after k = 4 it is the starting value, then + dn per observation
+      const prev1 = k === 5 ? 2 * p : t[3 * (k - 1)];
+      const prev2 = k === 5 ? 4 * p : t[3 * (k - 1) + 1];
+      const prev3 = k === 5 ? 2 + 2 * p : t[3 * (k - 1) + 2];
+      t[3 * k] = prev1 + d1;
+      t[3 * k + 1] = prev2 + d2;
+      t[3 * k + 2] = prev3 + d3;
+    }
+    this.filled = c + 1;
   }
 
   /** Adds observation x at point j (non-finite values are skipped). */
   add(j: number, x: number): void {
     if (!Number.isFinite(x)) return;
-    const { q, n, np, dn } = this;
+    const c = this.count[j];
+    if (c >= 5) this.desiredUpTo(c);
+    this.put(j, x);
+  }
+
+  /** Adds xs[j] at every point j (non-finite values skipped): one observation of the whole curve. */
+  addAll(xs: ArrayLike<number>): void {
+    const { count, size } = this;
+    let most = 0;
+    for (let j = 0; j < size; j++) if (count[j] > most) most = count[j];
+    if (most >= 5) this.desiredUpTo(most);
+    for (let j = 0; j < size; j++) {
+      const x = xs[j];
+      if (Number.isFinite(x)) this.put(j, x);
+    }
+  }
+
+  /** One finite observation at point j (`desired` already covers its count). */
+  private put(j: number, x: number): void {
+    const { q, n } = this;
     const o = 5 * j;
     const c = this.count[j]++;
     if (c < 5) {
@@ -220,17 +271,11 @@ export class P2Quantiles {
         i--;
       }
       q[o + i] = x;
-      if (c === 4) {
-        const p = this.p;
-        for (let m = 0; m < 5; m++) n[o + m] = m;
-        np[o] = 0;
-        np[o + 1] = 2 * p;
-        np[o + 2] = 4 * p;
-        np[o + 3] = 2 + 2 * p;
-        np[o + 4] = 4;
-      }
+      if (c === 4) for (let m = 0; m < 5; m++) n[o + m] = m;
       return;
     }
+    // the cell k that x falls in, and the positions of the markers above it moved up by one; the markers
+    // are in order, so the cell is the count of inner markers at or below x (no data-dependent loops)
     let k: number;
     if (x < q[o]) {
       q[o] = x;
@@ -243,9 +288,10 @@ export class P2Quantiles {
       while (k < 3 && x >= q[o + k + 1]) k++;
     }
     for (let m = k + 1; m < 5; m++) n[o + m] += 1;
-    for (let m = 0; m < 5; m++) np[o + m] += dn[m];
+    const t = this.desired;
+    const w = 3 * c - 1;
     for (let m = 1; m <= 3; m++) {
-      const d = np[o + m] - n[o + m];
+      const d = t[w + m] - n[o + m];
       const up = n[o + m + 1] - n[o + m];
       const down = n[o + m - 1] - n[o + m];
       if ((d >= 1 && up > 1) || (d <= -1 && down < -1)) {
@@ -652,7 +698,8 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
   let sensitivity: SpreadSensitivity[] = [];
   let critical = -1;
 
-  const load = (factor: ArrayLike<number>) => cc.retune(chainWithFactors(chain, parts, factor));
+  // every build into the same stage-model buffers (only the values change): see RetuneOptions
+  const load = (factor: ArrayLike<number>) => cc.retune(chainWithFactors(chain, parts, factor), { reuse: true });
   const magDb = (sw: SweepResult, e: number, out: Float64Array) => {
     for (let k = 0; k < G; k++) {
       const m = magnitude(sw.cumRe[e][k], sw.cumIm[e][k]);
@@ -776,8 +823,8 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
       for (let k = 0; k < P; k++) factors[k] = 1 + draw(rng, parts[k].tolerance, distribution);
       load(factors);
       sweep = cc.sweep(grid, sweep);
-      ends.forEach((e, pi) => {
-        magDb(sweep!, e, dbScratch);
+      for (let pi = 0; pi < ends.length; pi++) {
+        magDb(sweep, ends[pi], dbScratch);
         const mn = envMin[pi];
         const mx = envMax[pi];
         for (let k = 0; k < G; k++) {
@@ -785,10 +832,10 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
           if (!Number.isFinite(v)) continue;
           if (v < mn[k]) mn[k] = v;
           if (v > mx[k]) mx[k] = v;
-          env5[pi].add(k, v);
-          env95[pi].add(k, v);
         }
-      });
+        env5[pi].addAll(dbScratch);
+        env95[pi].addAll(dbScratch);
+      }
       const fig = evaluate(buildFigures);
       let any = false;
       for (let i = 0; i < n; i++) {

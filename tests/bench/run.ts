@@ -173,6 +173,23 @@ if (!spreadOnly) {
     );
   line(1000, a);
   if (b) line(bigSpread, b);
+  // a build's reload of the values: the stage models built into the previous build's buffers (what the
+  // spread does) against freshly allocated ones, alternated draw by draw so both see the same load
+  {
+    const draws = perturbed(chain, 2000, "retune");
+    const reuse: number[] = [];
+    const fresh: number[] = [];
+    const cr = compileChain(chain);
+    const cf = compileChain(chain);
+    draws.forEach((d) => {
+      reuse.push(...times(1, () => cr.retune(d, { reuse: true })));
+      fresh.push(...times(1, () => cf.retune(d)));
+    });
+    console.log(
+      `   retune of one build           reusing the stage-model buffers median ${(median(reuse) * 1000).toFixed(1)} µs, fresh ${(median(fresh) * 1000).toFixed(1)} µs: ` +
+        `${(median(fresh) / median(reuse)).toFixed(2)}× (${draws.length} draws each)`,
+    );
+  }
   // medians on both sides, so a busy machine's stolen slices count for neither
   const estimate = estimateOf(a);
   console.log(

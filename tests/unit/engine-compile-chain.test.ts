@@ -6,7 +6,8 @@ import Complex from "complex.js";
 import { describe, expect, it } from "vitest";
 import { compileChain, referenceResponse, referenceTransfer } from "@/lib/engine";
 import type { Chain, ChainNode, Part } from "@/lib/chain/types";
-import { adc, chainOf, line, randomChain, rails, source } from "./engine-fixtures";
+import seedrandom from "seedrandom";
+import { adc, chainOf, line, randomChain, randomSensorChain, rails, source } from "./engine-fixtures";
 
 const TAU = 2 * Math.PI;
 
@@ -430,6 +431,71 @@ describe("compileChain", () => {
       after.cumRe.forEach((x, i) => expect(Array.from(x)).toEqual(Array.from(fresh.cumRe[i])));
       expect(after.cumRe.map((x) => Array.from(x))).not.toEqual(before);
       expect(cc.chain).toBe(b);
+    });
+
+    it("with reuse, builds into the same buffers and gives exactly what a fresh retune gives", () => {
+      // the reusing path (RetuneOptions.reuse, PolyPool) must change allocations only: every sweep array,
+      // every closed-form coefficient and every transfer bit for bit as the fresh path, over several draws
+      const chains = [
+        randomChain("reuse-a", 8, { integrators: true }),
+        randomChain("reuse-b", 9),
+        randomChain("reuse-c", 6),
+        randomSensorChain("reuse-d", 6),
+        randomSensorChain("reuse-e", 5),
+      ];
+      const freqs = Float64Array.of(0, 0.3, 10, 2e3, 1e5, 3e6);
+      const polysOf = (cc: ReturnType<typeof compileChain>) =>
+        cc.models.flatMap((m) => (m ? [m.den, m.vin.vo, m.vin.iin, m.vin.p, ...m.sources.flatMap((x) => [x.vo, x.iin, x.p])].map((p) => Array.from(p)) : []));
+      const transfers = (cc: ReturnType<typeof compileChain>) => {
+        const re = new Float64Array(cc.sources.length);
+        const im = new Float64Array(cc.sources.length);
+        const out: number[] = [];
+        for (const f of [0, 50, 5e4]) {
+          cc.setFrequency(f);
+          cc.nodeIds.forEach((_, i) => {
+            cc.transfersTo(i, false, re, im);
+            out.push(...re, ...im);
+            if (cc.models[i]) {
+              cc.transfersTo(i, true, re, im);
+              out.push(...re, ...im);
+            }
+          });
+        }
+        return out;
+      };
+      const sweepOf = (cc: ReturnType<typeof compileChain>) => {
+        const sw = cc.sweep(freqs);
+        return [sw.cumRe, sw.cumIm, sw.indRe, sw.indIm, sw.yRe, sw.yIm].flatMap((xs) => xs.map((x) => Array.from(x))).concat([Array.from(sw.pole)]);
+      };
+      let draws = 0;
+      chains.forEach((base, c) => {
+        const reused = compileChain(base);
+        const fresh = compileChain(base);
+        const rng = seedrandom(`reuse-draws-${c}`);
+        let den: Float64Array[] | null = null;
+        for (let d = 0; d < 4; d++) {
+          const draw: Chain = {
+            ...base,
+            nodes: base.nodes.map((n) =>
+              n.kind === "source" || n.kind === "adc"
+                ? n
+                : ({ ...n, params: Object.fromEntries(Object.entries(n.params).map(([k, v]) => [k, typeof v === "number" && v > 0 && k !== "vref" && k !== "vbias" ? v * (0.9 + 0.2 * rng()) : v])) } as ChainNode),
+            ),
+          };
+          reused.retune(draw, { reuse: true });
+          fresh.retune(draw);
+          expect(polysOf(reused)).toEqual(polysOf(fresh));
+          expect(sweepOf(reused)).toEqual(sweepOf(fresh));
+          expect(transfers(reused)).toEqual(transfers(fresh));
+          expect(reused.sources.map((x) => x.resistance)).toEqual(fresh.sources.map((x) => x.resistance));
+          // from the second reusing retune on, the models sit in the buffers of the one before
+          const now = reused.models.flatMap((m) => (m ? [m.den] : []));
+          if (den) now.forEach((x, i) => expect(x).toBe(den![i]));
+          den = now;
+          draws++;
+        }
+      });
+      expect(draws).toBe(20);
     });
 
     it("refuses a chain of another shape", () => {
