@@ -7,6 +7,7 @@ import { findUserByEmail, normalizeEmail, savePendingSignup } from "@/db/queries
 import { signIn } from "@/lib/auth";
 import { accountNameSchema, hashPassword, newPasswordSchema, PASSWORD_MAX_LENGTH, verifyPassword } from "@/lib/auth/password";
 import { safeCallbackPath } from "@/lib/auth/redirects";
+import { formFields, NOT_A_FORM } from "@/lib/api/action-input";
 import { validate } from "@/lib/api/validate";
 
 export interface FormState {
@@ -34,10 +35,6 @@ const linkSignInSchema = z.object({ email });
 
 const signUpSchema = z.object({ name: accountNameSchema, email, password: newPasswordSchema });
 
-function fields(form: FormData, names: string[]): Record<string, string> {
-  return Object.fromEntries(names.map((n) => [n, String(form.get(n) ?? "")]));
-}
-
 function fieldErrors(errors: { path: string; message: string }[]): Record<string, string> {
   const out: Record<string, string> = {};
   for (const e of errors) out[e.path] ??= e.message;
@@ -45,7 +42,8 @@ function fieldErrors(errors: { path: string; message: string }[]): Record<string
 }
 
 export async function signInWithPassword(_prev: FormState, form: FormData): Promise<FormState> {
-  const input = fields(form, ["email", "password"]);
+  const input = formFields(form, ["email", "password", "callbackUrl"]);
+  if (!input) return { error: NOT_A_FORM };
   const values = { email: input.email };
   const parsed = validate(passwordSignInSchema, input);
   if (!parsed.ok) return { fieldErrors: fieldErrors(parsed.errors), values };
@@ -53,7 +51,7 @@ export async function signInWithPassword(_prev: FormState, form: FormData): Prom
     await signIn("credentials", {
       email: normalizeEmail(parsed.data.email),
       password: parsed.data.password,
-      redirectTo: safeCallbackPath(form.get("callbackUrl")),
+      redirectTo: safeCallbackPath(input.callbackUrl),
     });
   } catch (error) {
     unstable_rethrow(error); // a successful sign-in ends in a redirect, thrown
@@ -80,10 +78,12 @@ async function sendSignInLink(address: string, redirectTo: string, values: Recor
 }
 
 export async function signInWithLink(_prev: FormState, form: FormData): Promise<FormState> {
-  const input = fields(form, ["email"]);
+  const input = formFields(form, ["email", "callbackUrl"]);
+  if (!input) return { error: NOT_A_FORM };
+  const values = { email: input.email };
   const parsed = validate(linkSignInSchema, input);
-  if (!parsed.ok) return { fieldErrors: fieldErrors(parsed.errors), values: input };
-  return sendSignInLink(normalizeEmail(parsed.data.email), safeCallbackPath(form.get("callbackUrl")), input);
+  if (!parsed.ok) return { fieldErrors: fieldErrors(parsed.errors), values };
+  return sendSignInLink(normalizeEmail(parsed.data.email), safeCallbackPath(input.callbackUrl), values);
 }
 
 /**
@@ -92,7 +92,8 @@ export async function signInWithLink(_prev: FormState, form: FormData): Promise<
  * nothing is stored, so the form neither reveals accounts nor lets anyone replace a password.
  */
 export async function signUp(_prev: FormState, form: FormData): Promise<FormState> {
-  const input = fields(form, ["name", "email", "password"]);
+  const input = formFields(form, ["name", "email", "password"]);
+  if (!input) return { error: NOT_A_FORM };
   const values = { name: input.name, email: input.email };
   const parsed = validate(signUpSchema, input);
   if (!parsed.ok) return { fieldErrors: fieldErrors(parsed.errors), values };

@@ -40,7 +40,8 @@ import * as authActions from "@/app/(auth)/actions";
 import * as invitationActions from "@/app/(auth)/invitation/[token]/actions";
 import * as workspaceActions from "@/app/(workspace)/actions";
 import * as settingsActions from "@/app/(workspace)/settings/actions";
-import { createInvitation } from "@/db/queries/invitations";
+import { createInvitation, findInvitationByToken } from "@/db/queries/invitations";
+import { findUserByEmail } from "@/db/queries/users";
 import { getUserSettings } from "@/db/queries/settings";
 import type { User } from "@/db/schema";
 import { appRoutes, importProjectModule, serverActions } from "../support/app-surface";
@@ -215,5 +216,75 @@ describe("authorisation sweep: every server action × every position", () => {
         row.after?.(w, me);
       });
     });
+  }
+});
+
+/**
+ * A server action is a public endpoint: React decodes whatever a caller posts into its arguments (any
+ * serialisable value, for the form as for a token bound in the browser), not only what the page's own
+ * form sends. Each action, called so, must hand back a refusal naming what was wrong (or, for the
+ * settings form, go back to its page), never throw (Next's 500), and write nothing.
+ */
+describe("server actions refuse arguments their own pages never send", () => {
+  const NOT_FORMS: unknown[] = [null, undefined, 42, "email=a%40b.example", { email: "x@test.example", get: 1 }, ["x"], new Date(0)];
+  const NOT_TOKENS: unknown[] = [null, undefined, 42, { length: 43 }, ["tok"], "", "t".repeat(201)];
+  type Call = (w: TeamWorld, bad: unknown) => Promise<unknown>;
+  const HOSTILE: Record<string, { calls: Array<[label: string, values: unknown[], call: Call]>; expect: Outcome; after?: (w: TeamWorld) => void }> = {
+    "action app/(auth)/actions.ts signInWithPassword": { expect: "refused", calls: [["form", NOT_FORMS, (_w, bad) => authActions.signInWithPassword({}, bad as FormData)]] },
+    "action app/(auth)/actions.ts signInWithLink": { expect: "refused", calls: [["form", NOT_FORMS, (_w, bad) => authActions.signInWithLink({}, bad as FormData)]] },
+    "action app/(auth)/actions.ts signUp": {
+      expect: "refused",
+      calls: [
+        ["form", NOT_FORMS, (_w, bad) => authActions.signUp({}, bad as FormData)],
+        // a file where the name belongs is no name (it used to be taken as "[object File]")
+        ["a file as the name", [new File(["x"], "n.txt")], (_w, file) => {
+          const f = form({ email: "file-name@test.example", password: "a long enough passphrase" });
+          f.set("name", file as File);
+          return authActions.signUp({}, f);
+        }],
+      ],
+    },
+    "action app/(auth)/invitation/[token]/actions.ts acceptInvitationAction": { expect: "refused", calls: [["token", NOT_TOKENS, (_w, bad) => invitationActions.acceptInvitationAction(bad as string)]] },
+    "action app/(auth)/invitation/[token]/actions.ts signUpThroughInvitation": {
+      expect: "refused",
+      calls: [
+        ["token", NOT_TOKENS, (_w, bad) => invitationActions.signUpThroughInvitation(bad as string, {}, form({ name: "Forged", password: "a long enough passphrase" }))],
+        ["form", NOT_FORMS, async (w, bad) => {
+          const address = fresh("forged-form");
+          const { token } = createInvitation(address, { chainId: w.chainId, teamId: w.teamId, role: "viewer" }, w.owner.id);
+          const out = await invitationActions.signUpThroughInvitation(token, {}, bad as FormData);
+          expect(findUserByEmail(address), "no account made").toBeUndefined();
+          expect(findInvitationByToken(token)?.state, "the invitation still open").toBe("open");
+          return out;
+        }],
+      ],
+    },
+    "action app/(workspace)/settings/actions.ts saveNotificationSettings": {
+      expect: "→/settings",
+      calls: [["form", NOT_FORMS, (_w, bad) => settingsActions.saveNotificationSettings(bad as FormData)]],
+      after: (w) => expect(getUserSettings(w.owner.id)).toEqual({ notifyOnComments: true, notifyOnReviews: true }),
+    },
+  };
+  // signOutAction takes no argument, so there is nothing to forge
+  const WITHOUT_ARGUMENTS = new Set(["action app/(workspace)/actions.ts signOutAction"]);
+
+  it("has a case for every server action that takes arguments", () => {
+    const keys = serverActions().map((a) => a.key).filter((k) => !WITHOUT_ARGUMENTS.has(k));
+    expect(keys.filter((k) => !(k in HOSTILE)), "add the action to HOSTILE in tests/api/matrix-actions.test.ts").toEqual([]);
+  });
+
+  for (const [name, row] of Object.entries(HOSTILE)) {
+    for (const [label, values, call] of row.calls) {
+      it(`${name}: a forged ${label} → ${row.expect}`, async () => {
+        const w = teamWorld();
+        signInAs(w.owner);
+        for (const bad of values) {
+          const { outcome, body } = await outcomeOf(() => call(w, bad));
+          expect(outcome, `${label} = ${String(bad).slice(0, 40)}: ${body}`).toBe(row.expect);
+          if (outcome === "refused") expect(body, "the refusal says what was wrong").toMatch(/"(error|fieldErrors)":/);
+        }
+        row.after?.(w);
+      });
+    }
   }
 });

@@ -109,9 +109,29 @@ describe("proxy", () => {
     const signedIn = new NextRequest("http://localhost/chains", { headers: { cookie: "authjs.session-token=x" } });
     expect(proxy(signedIn).headers.get("content-security-policy")).toBeTruthy();
   });
-  it("runs on pages but not on route handlers or build files", () => {
-    const source = new RegExp(`^${proxyConfig.matcher[0].source.replace("/(", "/(")}$`);
-    for (const page of ["/", "/sign-in", "/chains/abc", "/mailbox", "/invitation/tok"]) expect(page, page).toMatch(source);
-    for (const other of ["/api/chains", "/_next/static/chunks/a.js", "/icon.svg"]) expect(other, other).not.toMatch(source);
+  it("runs on everything but the build's own files; a route handler, a file or a prefetch gets no policy or redirect", () => {
+    const source = new RegExp(`^${proxyConfig.matcher[0]}$`);
+    for (const p of ["/", "/sign-in", "/chains/abc", "/mailbox", "/invitation/tok", "/api/chains", "/icon.svg"]) expect(p, p).toMatch(source);
+    for (const built of ["/_next/static/chunks/a.js", "/_next/image"]) expect(built, built).not.toMatch(source);
+    for (const url of ["http://localhost/api/chains/abc", "http://localhost/icon.svg", "http://localhost/examples/a.csv"]) {
+      const res = proxy(new NextRequest(url));
+      expect(res.headers.get("content-security-policy"), url).toBeNull();
+      expect(res.headers.get("x-middleware-next"), url).toBe("1");
+    }
+    const prefetch = proxy(new NextRequest("http://localhost/chains/abc", { headers: { "next-router-prefetch": "1" } }));
+    expect(prefetch.status).toBe(200);
+    expect(prefetch.headers.get("content-security-policy")).toBeNull();
+  });
+  it("refuses an address with a broken percent-encoding with 400 naming the address, before Next's own decoding answers 500", async () => {
+    for (const path of ["/api/chains/%E0%A4%A", "/api/chains/%ZZ/revisions", "/chains/%E0", "/chains/%E0/history", "/invitation/%C3", "/api/x/%E0.csv"]) {
+      for (const headers of [{}, { cookie: "authjs.session-token=x" }, { "next-router-prefetch": "1" }] as Record<string, string>[]) {
+        const res = proxy(new NextRequest(`http://localhost${path}`, { headers }));
+        expect(res.status, path).toBe(400);
+        expect((await res.json()).errors, path).toEqual([{ path: "url", message: expect.stringContaining("percent-encoding") }]);
+      }
+    }
+    // a well-formed encoding goes on as before
+    expect(proxy(new NextRequest("http://localhost/api/chains/a%20b")).status).toBe(200);
+    expect(proxy(new NextRequest("http://localhost/chains/%C3%A9", { headers: { cookie: "authjs.session-token=x" } })).headers.get("content-security-policy")).toBeTruthy();
   });
 });

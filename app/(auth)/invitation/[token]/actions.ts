@@ -7,6 +7,7 @@ import { ensurePersonalTeam } from "@/db/queries/users";
 import { signIn } from "@/lib/auth";
 import { accountNameSchema, hashPassword, newPasswordSchema } from "@/lib/auth/password";
 import { getCurrentUser } from "@/lib/auth/session";
+import { formFields, invitationTokenSchema, NOT_A_FORM } from "@/lib/api/action-input";
 import { validate } from "@/lib/api/validate";
 import { acceptFor } from "@/lib/review/accept";
 
@@ -19,6 +20,8 @@ export interface InvitationFormState {
 /** Accept as the signed-in user (the address must be the invited one). */
 // The form state and data that useActionState passes in are not needed: the token says it all.
 export async function acceptInvitationAction(token: string): Promise<InvitationFormState> {
+  const bad = tokenRefusal(token);
+  if (bad) return bad;
   const user = await getCurrentUser();
   if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(`/invitation/${token}`)}`);
   const result = acceptFor(token, user);
@@ -28,13 +31,22 @@ export async function acceptInvitationAction(token: string): Promise<InvitationF
 
 const signUpSchema = z.object({ name: accountNameSchema, password: newPasswordSchema });
 
+/** The token is bound in the browser, so a forged call can put anything there. */
+function tokenRefusal(token: unknown): InvitationFormState | null {
+  const parsed = validate(invitationTokenSchema, token);
+  return parsed.ok ? null : { error: "This invitation link is not valid.", fieldErrors: { token: parsed.errors[0].message } };
+}
+
 /**
  * Sign up through an invitation: the account for the invited address is created (the mailed link
  * proves the address, so no second confirmation mail), the invitation is taken, and the new user is
  * signed in and lands on what they were invited to.
  */
 export async function signUpThroughInvitation(token: string, _prev: InvitationFormState, form: FormData): Promise<InvitationFormState> {
-  const input = { name: String(form.get("name") ?? ""), password: String(form.get("password") ?? "") };
+  const bad = tokenRefusal(token);
+  if (bad) return bad;
+  const input = formFields(form, ["name", "password"]);
+  if (!input) return { error: NOT_A_FORM };
   const parsed = validate(signUpSchema, input);
   if (!parsed.ok) {
     const fieldErrors: Record<string, string> = {};
