@@ -9,11 +9,11 @@
 import { existsSync, readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import path from "node:path";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Page } from "playwright-core";
+import { beforeAll, describe, expect, it } from "vitest";
 import { budgetFor, formatReport, leakedIn, readBuild, type BuildReport } from "../budgets/build-report";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession } from "./support/browser";
+import { DEMO_PEOPLE } from "./support/auth";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { E2E_DIST_DIR } from "./support/server";
 import { openWorkspace, waitForPlot } from "./workspace-support";
@@ -86,16 +86,10 @@ async function axeProblems(page: Page): Promise<string[]> {
 }
 
 describe.skipIf(ctx.skip !== null)("accessibility of every page (axe-core, production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("has no serious or critical violation on the public pages", async () => {
-    const { context, page } = await newSession(browser);
+    const { context, page } = await sessions.open();
     const found: Record<string, string[]> = {};
     for (const pathname of ["/", "/sign-in", "/sign-up", "/check-your-mail", "/auth-error"]) {
       await page.goto(pathname);
@@ -109,9 +103,7 @@ describe.skipIf(ctx.skip !== null)("accessibility of every page (axe-core, produ
   });
 
   it("has no serious or critical violation on the signed-in pages, the workspace included", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerA.email);
     const found: Record<string, string[]> = {};
     const check = async (label: string) => {
       await page.waitForLoadState("networkidle");

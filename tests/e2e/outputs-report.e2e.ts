@@ -1,8 +1,8 @@
 import { inflateSync } from "node:zlib";
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { describe, expect, it } from "vitest";
+import { DEMO_PEOPLE } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { openWorkspace, waitForSaveState } from "./workspace-support";
 
@@ -48,18 +48,10 @@ function pdfOutlineTitles(pdf: Buffer): string[] {
 }
 
 describe.skipIf(ctx.skip !== null)("hand-offs: outputs page, printed design report, chain import (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("prints the design report to PDF on A4 and Letter with its plots as images and every section", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.reviewer.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.reviewer.email);
     const id = await openWorkspace(page, "Hull vibration channel, aft bay");
     await page.getByTestId("outputs-link").click();
     await page.waitForURL(new RegExp(`/chains/${id}/outputs$`));
@@ -112,9 +104,7 @@ describe.skipIf(ctx.skip !== null)("hand-offs: outputs page, printed design repo
   });
 
   it("imports a chain file: names every problem first, writes nothing until asked, then opens the new chain", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerB.email);
     const id = await openWorkspace(page, "Turbidity photodiode channel");
     const exported = await page.request.get(`/api/chains/${id}/export`);
     expect(exported.status()).toBe(200);
@@ -146,9 +136,7 @@ describe.skipIf(ctx.skip !== null)("hand-offs: outputs page, printed design repo
   });
 
   it("the read-only link opens the chain with every edit off, even for someone who may edit it", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.admin.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.admin.email);
     const id = await openWorkspace(page, "Hull vibration channel, aft bay");
     await page.goto(`/chains/${id}/view`);
     await page.getByTestId("workspace").waitFor();

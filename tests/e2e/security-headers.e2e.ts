@@ -1,7 +1,6 @@
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession } from "./support/browser";
+import { describe, expect, it } from "vitest";
+import { DEMO_PEOPLE } from "./support/auth";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 
 const ctx = e2eContext();
@@ -10,13 +9,7 @@ const ctx = e2eContext();
 const nonceOf = (policy: string) => policy.match(/script-src[^;]*'nonce-([^']+)'/)?.[1];
 
 describe.skipIf(ctx.skip !== null)("security headers and cookies (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("sends every page with a policy whose nonce is new each time and is on every script of the page", async () => {
     for (const pathname of ["/", "/sign-in", "/sign-up", "/mailbox"]) {
@@ -54,9 +47,7 @@ describe.skipIf(ctx.skip !== null)("security headers and cookies (production bui
   });
 
   it("keeps the session in an httpOnly, Secure, SameSite cookie that page scripts cannot read", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerA.email);
     const session = (await context.cookies()).find((c) => c.name.includes("authjs.session-token"));
     expect(session).toBeDefined();
     expect(session!.name.startsWith("__Secure-")).toBe(true);

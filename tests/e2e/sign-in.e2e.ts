@@ -1,7 +1,8 @@
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { chainListRows, DEMO_PASSWORD, DEMO_PEOPLE, mailFor, requestSignInLink, signInWithPassword, signOut, uniqueEmail, waitForLink } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
+import { chainListRows, DEMO_PEOPLE, mailFor, requestSignInLink, signIn, signInWithPassword, signOut, uniqueEmail, waitForLink } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 
 const ctx = e2eContext();
@@ -10,16 +11,10 @@ const ctx = e2eContext();
 const problem = (page: Page) => page.locator('[role="alert"][data-tone="problem"]');
 
 describe.skipIf(ctx.skip !== null)("signing in and the workspace list (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("shows the landing page to everyone, with what the product does", async () => {
-    const { context, page } = await newSession(browser);
+    const { context, page } = await sessions.open();
     const res = await page.goto("/");
     expect(res?.status()).toBe(200);
     await expect(page.getByRole("heading", { level: 1 }).textContent()).resolves.toMatch(/op-amp stages between a sensor and its ADC/);
@@ -28,7 +23,7 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
   });
 
   it("sends a signed-out visitor from the workspace to sign-in, and the API answers 401", async () => {
-    const { context, page } = await newSession(browser);
+    const { context, page } = await sessions.open();
     await page.goto("/chains");
     expect(new URL(page.url()).pathname).toBe("/sign-in");
     expect(new URL(page.url()).searchParams.get("callbackUrl")).toBe("/chains");
@@ -39,9 +34,7 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
   });
 
   it("signs a demo engineer in by password and lists the team's chains", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerA.email);
     // Other browser-test files share this server and may have added chains: check the seeded ones are there.
     const rows = await chainListRows(page);
     const text = rows.join("\n");
@@ -64,7 +57,7 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
   });
 
   it("refuses a wrong password and an unknown address with the same words", async () => {
-    const { context, page } = await newSession(browser);
+    const { context, page } = await sessions.open();
     await signInWithPassword(page, DEMO_PEOPLE.reviewer.email, "not-the-password");
     const wrong = problem(page);
     await wrong.waitFor();
@@ -80,9 +73,7 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
   });
 
   it("shows the outsider only the chain shared with them, as viewer", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.outsider.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.outsider.email);
     const rows = await chainListRows(page);
     const row = rows.find((r) => r.includes("Hull vibration channel, aft bay")) ?? "";
     expect(rows.join("\n")).not.toMatch(/Ballast tank pressure bridge|Turbidity photodiode channel/);
@@ -92,7 +83,7 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
   });
 
   it("signs the reviewer in through the mailbox link, once only", async () => {
-    const { context, page } = await newSession(browser);
+    const { context, page } = await sessions.open();
     const email = DEMO_PEOPLE.reviewer.email;
     const before = (await mailFor(email)).length;
     await requestSignInLink(page, email);
@@ -113,7 +104,7 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
     }
 
     // a used link no longer works, and says so plainly
-    const { context: other, page: second } = await newSession(browser);
+    const { context: other, page: second } = await sessions.open();
     await second.goto(link);
     await second.waitForURL(/\/auth-error/);
     await expect(second.getByRole("heading", { level: 1 }).textContent()).resolves.toBe("This sign-in link no longer works");
@@ -123,7 +114,7 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
   });
 
   it("signs up a new user through the e-mail link, gives them a workspace, and their password works after", async () => {
-    const { context, page } = await newSession(browser);
+    const { context, page } = await sessions.open();
     const email = uniqueEmail("newcomer");
     const password = "a-long-enough-password";
     await page.goto("/sign-up");
@@ -135,7 +126,7 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
     await page.waitForURL(/\/check-your-mail/);
 
     // before the link is followed, the password does not sign in
-    const { context: early, page: earlyPage } = await newSession(browser);
+    const { context: early, page: earlyPage } = await sessions.open();
     await signInWithPassword(earlyPage, email, password);
     await problem(earlyPage).waitFor();
     await early.close();
@@ -154,15 +145,12 @@ describe.skipIf(ctx.skip !== null)("signing in and the workspace list (productio
     expect(await chainListRows(page)).toEqual([expect.stringContaining("First sketch")]);
 
     await signOut(page);
-    await signInWithPassword(page, email, password);
-    await page.waitForURL(/\/chains$/);
+    await signIn(page, email, password);
     await context.close();
   });
 
   it("refuses malformed and oversized requests to the API without a server error", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerB.email);
     const bad = await page.request.post("/api/chains", { headers: { "content-type": "application/json" }, data: "{oops" });
     expect(bad.status()).toBe(400);
     const big = await page.request.post("/api/analyze", { data: { chain: { notes: "x".repeat(1_100_000) } } });

@@ -3,28 +3,20 @@
  * restoring an old revision from the history, and importing op-amp models from a CSV with bad rows
  * through the preview.
  */
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { describe, expect, it } from "vitest";
+import { DEMO_PEOPLE } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { openWorkspace, selectCard, serverChain, typeInto, waitForSaveState } from "./workspace-support";
 
 const ctx = e2eContext();
 
 describe.skipIf(ctx.skip !== null)("viewer, history and the op-amp library (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("lets a viewer read comments and the review but neither comment, decide nor share", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.outsider.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.outsider.email);
     const id = await openWorkspace(page, "Hull vibration channel, aft bay");
     const tools = page.getByTestId("team-tools");
     await expect(tools.getByRole("button", { name: "Share" }).count()).resolves.toBe(0);
@@ -50,9 +42,7 @@ describe.skipIf(ctx.skip !== null)("viewer, history and the op-amp library (prod
   });
 
   it("restores an old revision as a new one, after showing the difference", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerB.email);
     const list = await (await page.request.get("/api/chains")).json();
     const hull = list.chains.find((c: { name: string }) => c.name === "Hull vibration channel, aft bay");
     const name = `Restore trial ${Date.now()}`;
@@ -88,9 +78,7 @@ describe.skipIf(ctx.skip !== null)("viewer, history and the op-amp library (prod
   });
 
   it("imports op-amp models from a CSV with bad rows through the preview", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerA.email);
     await page.goto("/parts");
     const before = await page.getByTestId("part-row").count();
     const stamp = Date.now();

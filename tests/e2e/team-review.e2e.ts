@@ -3,11 +3,12 @@
  * invitee signs up through the link from the mailbox, comments on a stage and requests changes, the
  * engineer fixes the stage, and the reviewer approves. Mail lands in the local mailbox at every step.
  */
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
 import { firstLink } from "../../lib/mail/mailbox";
-import { DEMO_PASSWORD, DEMO_PEOPLE, mailFor, signInWithPassword, waitForLink } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { DEMO_PEOPLE, mailFor, waitForLink } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { card, selectCard, serverChain, typeInto, waitForSaveState } from "./workspace-support";
 
@@ -36,13 +37,7 @@ async function waitForMail(email: string, subject: RegExp, timeoutMs = 15_000) {
 }
 
 describe.skipIf(ctx.skip !== null)("review by invitation, from draft to approved (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("shares by invitation, takes a comment and a request for changes, and ends approved", async () => {
     const stamp = Date.now();
@@ -51,9 +46,7 @@ describe.skipIf(ctx.skip !== null)("review by invitation, from draft to approved
     const engineerEmail = DEMO_PEOPLE.engineerA.email;
 
     // The engineer makes a chain of their own and invites a reviewer who has no account yet.
-    const eng = await newSession(browser);
-    await signInWithPassword(eng.page, engineerEmail, DEMO_PASSWORD);
-    await eng.page.waitForURL(/\/chains$/);
+    const eng = await sessions.signedIn(engineerEmail);
     const chainId = await copyOfDemoChain(eng.page, chainName);
     await eng.page.goto(`/chains/${chainId}`);
     await eng.page.getByTestId("workspace").waitFor();
@@ -67,7 +60,7 @@ describe.skipIf(ctx.skip !== null)("review by invitation, from draft to approved
     await screenshot(eng.page, "team-share-invited");
 
     // The reviewer follows the link from the mailbox page and signs up through it.
-    const rev = await newSession(browser);
+    const rev = await sessions.open();
     const link = await waitForLink(reviewerEmail);
     expect(link).toMatch(/\/invitation\/[A-Za-z0-9_-]{43}$/);
     await rev.page.goto("/mailbox");
@@ -81,7 +74,7 @@ describe.skipIf(ctx.skip !== null)("review by invitation, from draft to approved
     await rev.page.waitForURL(new RegExp(`/chains/${chainId}$`));
     await rev.page.getByTestId("workspace").waitFor();
     // the link worked once: a second visit says so
-    const other = await newSession(browser);
+    const other = await sessions.open();
     await other.page.goto(link);
     await expect(other.page.getByRole("heading", { level: 1 }).textContent()).resolves.toBe("This invitation has been used");
     await other.context.close();

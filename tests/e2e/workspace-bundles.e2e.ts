@@ -1,7 +1,8 @@
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
+import { DEMO_PEOPLE, signIn } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { openWorkspace, waitForFirstPlot, waitForPlot } from "./workspace-support";
 
@@ -23,21 +24,14 @@ function watchScripts(page: Page): { url: string; plotly: boolean }[] {
 }
 
 describe.skipIf(ctx.skip !== null)("the plotting library loads only in the workspace (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("is in no script of the landing, sign-in, chain list or new-chain pages, and is fetched when a chain opens", async () => {
-    const { context, page } = await newSession(browser);
+    const { context, page } = await sessions.open();
     const scripts = watchScripts(page);
     await page.goto("/");
     await page.goto("/sign-in");
-    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    await signIn(page, DEMO_PEOPLE.engineerA.email);
     await page.goto("/chains/new");
     await page.getByRole("button", { name: "Create and open" }).waitFor();
     await page.waitForLoadState("networkidle");
@@ -53,10 +47,9 @@ describe.skipIf(ctx.skip !== null)("the plotting library loads only in the works
   });
 
   it("draws a chain's first plot as SVG without it, and Plotly, loaded when the plot is pointed at, draws the same line", async () => {
-    const { context, page } = await newSession(browser);
+    const { context, page } = await sessions.open();
     const scripts = watchScripts(page);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    await signIn(page, DEMO_PEOPLE.engineerA.email);
     // opened with the pointer off the plot and no input since: only the SVG drawing
     const href = (await page.getByRole("link", { name: "Hull vibration channel, aft bay", exact: true }).getAttribute("href"))!;
     await page.mouse.move(1, 1);

@@ -1,7 +1,8 @@
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
+import { DEMO_PEOPLE } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { findTemplate } from "../../lib/templates";
 import { selectCard, serverChain, typeInto, waitForPlot, waitForSaveState } from "./workspace-support";
@@ -10,20 +11,7 @@ const ctx = e2eContext();
 const CHAIN = "Turbidity, conflict check";
 
 describe.skipIf(ctx.skip !== null)("two people saving the same chain (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
-
-  async function signIn(email: string): Promise<{ page: Page; close: () => Promise<void> }> {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
-    return { page, close: () => context.close() };
-  }
+  const sessions = useBrowser();
 
   /** Tobias makes a chain of his own from the turbidity example and shares it with Ines as an editor. */
   async function sharedChain(owner: Page): Promise<string> {
@@ -54,8 +42,8 @@ describe.skipIf(ctx.skip !== null)("two people saving the same chain (production
   }
 
   it("answers a stale save with the conflict choice, never a silent overwrite: load theirs, or keep mine as a copy", async () => {
-    const tobias = await signIn(DEMO_PEOPLE.engineerA.email);
-    const ines = await signIn(DEMO_PEOPLE.engineerB.email);
+    const tobias = await sessions.signedIn(DEMO_PEOPLE.engineerA.email);
+    const ines = await sessions.signedIn(DEMO_PEOPLE.engineerB.email);
     const id = await sharedChain(tobias.page);
     await open(tobias.page, id);
     await open(ines.page, id);
@@ -105,7 +93,7 @@ describe.skipIf(ctx.skip !== null)("two people saving the same chain (production
     expect(original.version).toBe(start + 2);
     expect(original.document.nodes.find((n) => n.id === "inv")!.params).toMatchObject({ r1: 4.7e3, r2: 22e3 });
 
-    await tobias.close();
-    await ines.close();
+    await tobias.context.close();
+    await ines.context.close();
   });
 });

@@ -1,7 +1,7 @@
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { describe, expect, it } from "vitest";
+import { DEMO_PEOPLE } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { card, createBlankChain, pressOnCanvas, selectCard, typeInto, waitForPlot, waitForSaveState, waitForStatus, serverChain } from "./workspace-support";
 
@@ -14,18 +14,10 @@ const plotLines = (page: import("playwright-core").Page) =>
   );
 
 describe.skipIf(ctx.skip !== null)("filter sections in the workspace (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("adds a Sallen-Key high-pass from the shelf, gives it gain, and the figures and the plot follow", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerB.email);
     const id = await createBlankChain(page, "High-pass sketch");
     await pressOnCanvas(page, "1");
     await card(page, "src").waitFor();

@@ -1,9 +1,9 @@
 import { readFileSync } from "node:fs";
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { DIFFERENCE_COLUMNS } from "@/lib/waveform-csv";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { DEMO_PEOPLE } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { openWorkspace, waitForPlot } from "./workspace-support";
 
@@ -18,18 +18,10 @@ const drawnTraces = (page: import("playwright-core").Page) =>
   });
 
 describe.skipIf(ctx.skip !== null)("measured responses on the response plot (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("uploads the example sweep, overlays it with the difference plotted, downloads the difference and deletes it", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerA.email);
     await openWorkspace(page, "Hull vibration channel, aft bay");
     await waitForPlot(page);
     const controls = page.getByTestId("measured-controls");

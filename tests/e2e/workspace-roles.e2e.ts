@@ -1,25 +1,17 @@
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { describe, expect, it } from "vitest";
+import { DEMO_PEOPLE } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { card, openWorkspace, pressOnCanvas, selectCard, serverChain, waitForPlot } from "./workspace-support";
 
 const ctx = e2eContext();
 
 describe.skipIf(ctx.skip !== null)("who may edit in the workspace (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("gives a viewer a read-only canvas: nothing to add, nothing to type, keys do nothing, and the API refuses a save", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.outsider.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.outsider.email);
     const id = await openWorkspace(page, "Hull vibration channel, aft bay");
     await waitForPlot(page);
     await expect(page.getByTestId("save-state").getAttribute("data-state")).resolves.toBe("read-only");
@@ -59,9 +51,7 @@ describe.skipIf(ctx.skip !== null)("who may edit in the workspace (production bu
   });
 
   it("gives a reviewer the same read-only canvas with every figure", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.reviewer.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.reviewer.email);
     await openWorkspace(page, "Ballast tank pressure bridge");
     await waitForPlot(page);
     await expect(page.getByTestId("save-state").getAttribute("data-state")).resolves.toBe("read-only");

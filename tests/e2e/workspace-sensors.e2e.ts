@@ -4,10 +4,10 @@
  * peaking, the suggested cf), one click sets cf to the suggestion and the warning goes; marking the sensor
  * as connected to a person brings up the safety caution. The chain is made here, on its own.
  */
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { describe, expect, it } from "vitest";
+import { DEMO_PEOPLE } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { card, selectCard, serverChain, typeInto, waitForSaveState } from "./workspace-support";
 
@@ -17,18 +17,10 @@ const ctx = e2eContext();
 const PART = { label: "Generic CMOS, 1 MHz", gbw: 1e6, aol: 1e6, slewRate: 5e5, swingLow: 0.05, swingHigh: 0.05 };
 
 describe.skipIf(ctx.skip !== null)("a sensor source in the workspace (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("photodiode into a TIA: the loop check fires without cf, names the fix, clears once it is applied; a body-connected sensor shows the caution", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerB.email);
     const name = `Photodiode trial ${Date.now()}`;
     const created = await page.request.post("/api/chains", {
       data: { name, document: { format: "chainwright.chain/1", name, parts: { p1: PART }, nodes: [], edges: [] } },

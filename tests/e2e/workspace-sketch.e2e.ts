@@ -1,8 +1,8 @@
 import { readFileSync } from "node:fs";
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { describe, expect, it } from "vitest";
+import { DEMO_PEOPLE, signIn } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { findTemplate } from "../../lib/templates";
 import { card, createBlankChain, createFromExample, dragConnect, pressOnCanvas, selectCard, serverChain, typeInto, waitForPlot, waitForSaveState, waitForStatus } from "./workspace-support";
@@ -10,20 +10,13 @@ import { card, createBlankChain, createFromExample, dragConnect, pressOnCanvas, 
 const ctx = e2eContext();
 
 describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("builds the demo chain from a blank sheet, finds the stage that clips at DC, fixes it, and finds it unchanged after a reload", async () => {
-    const { context, page } = await newSession(browser);
+    const { context, page } = await sessions.open();
     const errors: string[] = [];
     page.on("pageerror", (e) => errors.push(e.message));
-    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    await signIn(page, DEMO_PEOPLE.engineerB.email);
     const id = await createBlankChain(page, "Shaft torque channel");
     await expect(page.getByTestId("chain-name").textContent()).resolves.toBe("Shaft torque channel");
 
@@ -131,9 +124,7 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
   });
 
   it("undoes and redoes, duplicates and deletes by keyboard, and keeps a half-drawn chain analysable", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerB.email);
     await createBlankChain(page, "Keyboard sketch");
     await pressOnCanvas(page, "1");
     await pressOnCanvas(page, "2"); // non-inverting gain after the source
@@ -183,8 +174,7 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
   });
 
   it("starts a chain from an example and shows it analysed", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerA.email);
     await createFromExample(page, "Turbidity photodiode, two channels");
     for (const id of ["u1", "u2", "adc1", "adc2"]) await waitForStatus(page, id, "ok");
     // two converters: the plot offers both paths
@@ -194,10 +184,10 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
   });
 
   it("redraws an edited curve at once, where Plotly itself then draws it", async () => {
-    const { context, page } = await newSession(browser);
+    const { context, page } = await sessions.open();
     const errors: string[] = [];
     page.on("pageerror", (e) => errors.push(e.message));
-    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
+    await signIn(page, DEMO_PEOPLE.engineerA.email);
     await createFromExample(page, "Turbidity photodiode, two channels");
     await selectCard(page, "u2"); // the plot follows the anti-alias stage
     await page.waitForTimeout(800); // the selection's full redraw has settled
@@ -245,9 +235,7 @@ describe.skipIf(ctx.skip !== null)("sketching a chain in the workspace (producti
   });
 
   it("keeps both panels when an edit moves only the magnitude curve", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerA.email);
     // the bridge example with ideal op-amps in its in-amp: a gain change moves its magnitude and leaves
     // its phase (0°) exactly as it was
     const doc = findTemplate("ballast-bridge")!.make();

@@ -3,10 +3,11 @@
  * plan tab on the clipping bridge demo; a low-pass of order 4 inserted after a stage. Each test works on its
  * own copy of a demo chain.
  */
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
+import { DEMO_PEOPLE } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { card, selectCard, waitForSaveState, waitForStatus } from "./workspace-support";
 
@@ -23,18 +24,10 @@ async function copyOf(page: Page, demo: string): Promise<string> {
 }
 
 describe.skipIf(ctx.skip !== null)("solver in the workspace (production build)", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("solves a Sallen-Key stage for 1 kHz Butterworth, applies the best set, and undoes it", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerB.email);
     await copyOf(page, "Hull vibration channel, aft bay");
     await selectCard(page, "aa");
     const c1Before = await page.locator("#f-c1").inputValue();
@@ -60,9 +53,7 @@ describe.skipIf(ctx.skip !== null)("solver in the workspace (production build)",
   });
 
   it("plans the gain of the clipping bridge demo and applies the plan in one step", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerB.email);
     await copyOf(page, "Ballast tank pressure bridge");
     await waitForStatus(page, "gain", "clip");
     await page.getByRole("tab", { name: "Gain plan" }).click();
@@ -79,9 +70,7 @@ describe.skipIf(ctx.skip !== null)("solver in the workspace (production build)",
   });
 
   it("inserts a fourth-order Butterworth low-pass after a stage", async () => {
-    const { context, page } = await newSession(browser);
-    await signInWithPassword(page, DEMO_PEOPLE.engineerB.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    const { context, page } = await sessions.signedIn(DEMO_PEOPLE.engineerB.email);
     await copyOf(page, "Hull vibration channel, aft bay");
     await selectCard(page, "gain");
     await page.getByTestId("filter-open").click();

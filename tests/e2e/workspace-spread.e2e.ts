@@ -3,29 +3,22 @@
  * through the worker and ends with the envelope, the histograms and the worst-case table drawn; a second,
  * long run is cancelled part way. No timing is asserted.
  */
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORD, DEMO_PEOPLE, signInWithPassword } from "./support/auth";
-import { launchBrowser, newSession, screenshot } from "./support/browser";
+import { describe, expect, it } from "vitest";
+import { DEMO_PEOPLE, signIn } from "./support/auth";
+import { screenshot } from "./support/browser";
+import { useBrowser } from "./support/suite";
 import { e2eContext } from "./support/context";
 import { openWorkspace, waitForPlot } from "./workspace-support";
 
 const ctx = e2eContext();
 
 describe.skipIf(ctx.skip !== null)("tolerance spread in the workspace", () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const sessions = useBrowser();
 
   it("runs a spread to the end, then cancels a long one", async () => {
-    const { context, page } = await newSession(browser);
+    const { context, page } = await sessions.open();
     await page.goto("/sign-in");
-    await signInWithPassword(page, DEMO_PEOPLE.engineerA.email, DEMO_PASSWORD);
-    await page.waitForURL(/\/chains$/);
+    await signIn(page, DEMO_PEOPLE.engineerA.email);
     await openWorkspace(page, "Hull vibration channel, aft bay");
     await waitForPlot(page);
     // the noise budget, from the full analysis

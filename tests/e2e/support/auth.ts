@@ -1,5 +1,6 @@
 import type { Page } from "playwright-core";
 import { expect } from "vitest";
+import { DEMO_PASSWORD } from "../../../db/seed-data/people";
 import { firstLink, type StoredMessage } from "../../../lib/mail/mailbox";
 import { e2eContext } from "./context";
 
@@ -11,6 +12,12 @@ export async function signInWithPassword(page: Page, email: string, password: st
   await page.locator("#password-email").fill(email);
   await page.getByLabel("Password", { exact: true }).fill(password);
   await page.getByRole("button", { name: "Sign in", exact: true }).click();
+}
+
+/** Sign in by password (the demo password unless given) and wait for the chain list the sign-in ends on. */
+export async function signIn(page: Page, email: string, password: string = DEMO_PASSWORD): Promise<void> {
+  await signInWithPassword(page, email, password);
+  await page.waitForURL(/\/chains$/);
 }
 
 /** Ask for a sign-in link on the sign-in page; ends on the check-your-mail page. */
