@@ -2,13 +2,13 @@ import { NextResponse, type NextRequest } from "next/server";
 import { contentSecurityPolicy, makeNonce } from "@/lib/security/headers";
 
 /**
- * Runs before every request except the build's own files (see `config.matcher`):
+ * Runs before every page, and before any other address with a % in it (see `config.matcher`):
  *
  * 1. An address whose percent-encoding is broken ("/api/chains/%E0") is refused with 400, on pages,
  *    route handlers and files alike. Next decodes a dynamic segment with decodeURIComponent and answers
  *    its URIError with a bare 500 before any page or handler runs, so the refusal has to come first.
- *    Route handlers, files with an extension (icon.svg, the examples) and router prefetches get nothing
- *    more from here: they carry no page of their own to protect.
+ *    Route handlers, files with an extension and router prefetches that reach the proxy for that check
+ *    get nothing more from here: they carry no page of their own to protect.
  * 2. The content security policy with a fresh nonce. It goes on the response and also on the request
  *    headers, where Next finds it and puts the nonce on every script it renders; pages read it from
  *    `x-nonce` if they ever render a script of their own. Because the nonce changes per request, every
@@ -61,6 +61,19 @@ function decodesCleanly(pathname: string): boolean {
 }
 
 export const config = {
-  // everything but the build's own files, which are served before any route could decode anything
-  matcher: ["/((?!_next/static|_next/image).*)"],
+  matcher: [
+    {
+      // every page; not route handlers, build output, or files with an extension (icon.svg, fonts)
+      source: "/((?!api/|_next/static|_next/image|.*\\.[A-Za-z0-9]+$).*)",
+      missing: [
+        // router prefetches carry no HTML of their own to protect
+        { type: "header", key: "next-router-prefetch" },
+        { type: "header", key: "purpose", value: "prefetch" },
+      ],
+    },
+    // Any other address with a percent sign, route handlers included, for the encoding check alone. Only
+    // those: Next hands the proxy a copy of the request body of at most 10 MB and cuts the rest, and an
+    // upload's body may be larger.
+    "/(.*%.*)",
+  ],
 };

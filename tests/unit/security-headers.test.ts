@@ -109,16 +109,18 @@ describe("proxy", () => {
     const signedIn = new NextRequest("http://localhost/chains", { headers: { cookie: "authjs.session-token=x" } });
     expect(proxy(signedIn).headers.get("content-security-policy")).toBeTruthy();
   });
-  it("runs on everything but the build's own files; a route handler, a file or a prefetch gets no policy or redirect", () => {
-    const source = new RegExp(`^${proxyConfig.matcher[0]}$`);
-    for (const p of ["/", "/sign-in", "/chains/abc", "/mailbox", "/invitation/tok", "/api/chains", "/icon.svg"]) expect(p, p).toMatch(source);
-    for (const built of ["/_next/static/chunks/a.js", "/_next/image"]) expect(built, built).not.toMatch(source);
-    for (const url of ["http://localhost/api/chains/abc", "http://localhost/icon.svg", "http://localhost/examples/a.csv"]) {
+  it("runs on pages and on any address with a %, never on a route handler's ordinary path, a file or the build's output", () => {
+    const sources = proxyConfig.matcher.map((m) => new RegExp(`^${typeof m === "string" ? m : m.source}$`));
+    const reaches = (p: string) => sources.some((r) => r.test(p));
+    for (const p of ["/", "/sign-in", "/chains/abc", "/mailbox", "/invitation/tok", "/chains/%E0", "/api/chains/%E0", "/api/x/%E0.csv"]) expect(reaches(p), p).toBe(true);
+    // Next gives the proxy at most 10 MB of a request body and cuts the rest; uploads are larger
+    for (const p of ["/api/chains", "/api/chains/abc/uploads", "/_next/static/chunks/a.js", "/icon.svg", "/examples/a.csv"]) expect(reaches(p), p).toBe(false);
+    for (const url of ["http://localhost/api/chains/a%20b", "http://localhost/examples/a%20b.csv"]) {
       const res = proxy(new NextRequest(url));
       expect(res.headers.get("content-security-policy"), url).toBeNull();
       expect(res.headers.get("x-middleware-next"), url).toBe("1");
     }
-    const prefetch = proxy(new NextRequest("http://localhost/chains/abc", { headers: { "next-router-prefetch": "1" } }));
+    const prefetch = proxy(new NextRequest("http://localhost/chains/a%20b", { headers: { "next-router-prefetch": "1" } }));
     expect(prefetch.status).toBe(200);
     expect(prefetch.headers.get("content-security-policy")).toBeNull();
   });
