@@ -23,7 +23,7 @@ import { NODE_KINDS } from "@/lib/chain/types";
 import { useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/editor-context";
 import { edgeKey } from "@/lib/store/editor-store";
 import { checkConnection } from "@/lib/store/graph";
-import type { DraftNode } from "@/lib/store/draft";
+import type { DraftDoc, DraftNode } from "@/lib/store/draft";
 import { nodeTypes } from "./stage-card";
 import { SHELF_DRAG_TYPE, toFlowNode, type ChainFlowEdge, type StageFlowNode } from "./flow-types";
 
@@ -41,6 +41,29 @@ function withUi(src: StageFlowNode, sel: boolean, m: Measured | undefined): Stag
   uiCache.set(src, { sel, m, out });
   return out;
 }
+
+function flowEdges(docEdges: DraftDoc["edges"], selectedEdges: string[]): ChainFlowEdge[] {
+  const sel = new Set(selectedEdges);
+  return docEdges.map((e) => {
+    const id = edgeKey(e.from, e.to);
+    return { id, source: e.from, target: e.to, selected: sel.has(id), deletable: false };
+  });
+}
+
+/**
+ * The flow as the canvas first shows it, for `ReactFlowProvider`: with the nodes in React Flow's store
+ * from the start, the cards are in the server's HTML and in the hydrating render, so they are measured
+ * and fitted in the first frame after hydration instead of after the effects that hand the node list over.
+ */
+export function initialFlow(doc: DraftDoc, selected: string[] = []): { nodes: StageFlowNode[]; edges: ChainFlowEdge[] } {
+  const sel = new Set(selected);
+  return { nodes: doc.nodes.map((d) => withUi(toFlowNode(d), sel.has(d.id), undefined)), edges: flowEdges(doc.edges, []) };
+}
+
+/** How the canvas fits the chain into view when it opens (and on Fit). */
+export const FIT_OPTIONS = { maxZoom: 1, padding: 0.12 } as const;
+export const MIN_ZOOM = 0.2;
+export const MAX_ZOOM = 2;
 
 export function ChainCanvas() {
   const docNodes = useEditor((s) => s.doc.nodes);
@@ -60,13 +83,7 @@ export function ChainCanvas() {
     return docNodes.map((d: DraftNode) => withUi(toFlowNode(d), sel.has(d.id), measured[d.id]));
   }, [docNodes, selected, measured]);
 
-  const edges = useMemo<ChainFlowEdge[]>(() => {
-    const sel = new Set(selectedEdges);
-    return docEdges.map((e) => {
-      const id = edgeKey(e.from, e.to);
-      return { id, source: e.from, target: e.to, selected: sel.has(id), deletable: false };
-    });
-  }, [docEdges, selectedEdges]);
+  const edges = useMemo(() => flowEdges(docEdges, selectedEdges), [docEdges, selectedEdges]);
 
   // Keep a growing sketch in view: when a node is added, fit the chain once its card has been measured.
   const count = docNodes.length;
@@ -164,9 +181,9 @@ export function ChainCanvas() {
         multiSelectionKeyCode={["Shift", "Meta", "Control"]}
         defaultEdgeOptions={{ type: "smoothstep" }}
         fitView
-        fitViewOptions={{ maxZoom: 1, padding: 0.12 }}
-        minZoom={0.2}
-        maxZoom={2}
+        fitViewOptions={FIT_OPTIONS}
+        minZoom={MIN_ZOOM}
+        maxZoom={MAX_ZOOM}
         aria-label="Chain canvas"
       >
         <Background variant={BackgroundVariant.Dots} gap={20} size={1} color="#d6d2c8" />

@@ -6,25 +6,21 @@
  */
 import { useCallback, useEffect, useRef, useState } from "react";
 import { useRouter } from "next/navigation";
+import dynamic from "next/dynamic";
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { isSourceKind } from "@/lib/chain/types";
 import { ReactFlowProvider, useReactFlow } from "@xyflow/react";
 import { Notice } from "@/components/ui/notice";
 import { SafetyCaution } from "@/components/safety-caution";
 import { ResponsePlot } from "@/components/plots/response-plot";
-import { ChecksPanel } from "@/components/checks/checks-panel";
-import { HeadroomTable } from "@/components/checks/headroom-table";
-import { SpreadPanel } from "@/components/spread/spread-panel";
-import { GainPlanPanel } from "./gain-plan-panel";
-import { NoiseBudgetPanel } from "@/components/spread/noise-budget-panel";
-import { WaveformPanel } from "@/components/waveform/waveform-panel";
+import { DockLoading } from "./dock-loading";
 import { createEditorStore, type EditorStore } from "@/lib/store/editor-store";
 import { EditorProvider, useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/editor-context";
 import { startBrowserAnalysis } from "@/lib/store/analysis-driver";
 import { startAutosave, type Autosave } from "@/lib/store/autosave";
 import { toDraftDoc } from "@/lib/store/draft";
 import { ApiFailure, createChain, fetchChain, saveChain, type ChainDto } from "@/lib/api/client/chains";
-import { ChainCanvas } from "./chain-canvas";
+import { ChainCanvas, FIT_OPTIONS, initialFlow, MAX_ZOOM, MIN_ZOOM } from "./chain-canvas";
 import { Shelf } from "./shelf";
 import { Inspector } from "./inspector";
 import { OutputsLinks } from "@/components/outputs/outputs-link";
@@ -32,6 +28,16 @@ import { SaveIndicator } from "./save-indicator";
 import { commandFor, isTypingTarget, KEY_TABLE, type Command } from "./shortcuts";
 import { LiveProbe } from "./live-probe";
 import { TeamTools } from "@/components/review/team-tools";
+
+// The dock's other tabs load with their first opening: none of them is on the first screen, and their
+// code (tables, the spread's worker client, the waveform tools) kept out of the first script is less to
+// fetch, compile and run before a chain answers. No server rendering: a hidden tab has nothing to show.
+const ChecksPanel = dynamic(() => import("@/components/checks/checks-panel").then((m) => m.ChecksPanel), { ssr: false, loading: DockLoading });
+const HeadroomTable = dynamic(() => import("@/components/checks/headroom-table").then((m) => m.HeadroomTable), { ssr: false, loading: DockLoading });
+const NoiseBudgetPanel = dynamic(() => import("@/components/spread/noise-budget-panel").then((m) => m.NoiseBudgetPanel), { ssr: false, loading: DockLoading });
+const SpreadPanel = dynamic(() => import("@/components/spread/spread-panel").then((m) => m.SpreadPanel), { ssr: false, loading: DockLoading });
+const GainPlanPanel = dynamic(() => import("./gain-plan-panel").then((m) => m.GainPlanPanel), { ssr: false, loading: DockLoading });
+const WaveformPanel = dynamic(() => import("@/components/waveform/waveform-panel").then((m) => m.WaveformPanel), { ssr: false, loading: DockLoading });
 
 export interface WorkspaceProps {
   chain: ChainDto;
@@ -42,10 +48,11 @@ export function Workspace({ chain }: WorkspaceProps) {
   const [store] = useState<EditorStore>(() =>
     createEditorStore({ doc: toDraftDoc(chain.document), chainId: chain.id, version: chain.version, readOnly: !chain.actions.includes("edit") }),
   );
+  const [flow] = useState(() => initialFlow(store.getState().doc, store.getState().selected));
   return (
     <QueryClientProvider client={queryClient}>
       <EditorProvider store={store}>
-        <ReactFlowProvider>
+        <ReactFlowProvider initialNodes={flow.nodes} initialEdges={flow.edges} fitView initialFitViewOptions={FIT_OPTIONS} initialMinZoom={MIN_ZOOM} initialMaxZoom={MAX_ZOOM}>
           <WorkspaceBody role={chain.role} />
         </ReactFlowProvider>
       </EditorProvider>
@@ -64,7 +71,14 @@ function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
   const [keysOpen, setKeysOpen] = useState(false);
 
   useEffect(() => {
-    const driver = startBrowserAnalysis(store);
+    // The first analysis waits for the frame after hydration: that frame measures the cards and fits them
+    // into view (work that would otherwise queue behind the analysis and the first plot), then the
+    // analysis runs in the next task.
+    let driver: ReturnType<typeof startBrowserAnalysis> | null = null;
+    let timer: ReturnType<typeof setTimeout> | null = null;
+    const frame = requestAnimationFrame(() => {
+      timer = setTimeout(() => (driver = startBrowserAnalysis(store)), 0);
+    });
     const auto = startAutosave(store, async ({ id, baseVersion, document }) => {
       const saved = await saveChain({ id, baseVersion, document });
       return { version: saved.version };
@@ -76,7 +90,9 @@ function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
     };
     window.addEventListener("beforeunload", beforeUnload);
     return () => {
-      driver.stop();
+      cancelAnimationFrame(frame);
+      if (timer) clearTimeout(timer);
+      driver?.stop();
       auto.stop();
       window.removeEventListener("beforeunload", beforeUnload);
     };
@@ -105,10 +121,10 @@ function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
         case "deselect": return actions.select([]);
         case "connect": return void actions.connectSelected();
         case "save": return void autosave.current?.flush();
-        case "fit": return void rf.fitView({ duration: 200, maxZoom: 1, padding: 0.12 });
+        case "fit": return void rf.fitView({ duration: 200, ...FIT_OPTIONS });
         case "tidy":
           actions.tidy();
-          setTimeout(() => void rf.fitView({ duration: 200, maxZoom: 1, padding: 0.12 }), 30);
+          setTimeout(() => void rf.fitView({ duration: 200, ...FIT_OPTIONS }), 30);
           return;
         case "add": {
           const s = store.getState();
@@ -344,8 +360,9 @@ function Dock({ tab, setTab, focusNode }: { tab: DockTab; setTab: (t: DockTab) =
     { id: "waveforms", label: "Waveforms" },
   ];
   const chainId = useEditor((s) => s.chainId);
-  const [waveformsOpened, setWaveformsOpened] = useState(false);
-  if (tab === "waveforms" && !waveformsOpened) setWaveformsOpened(true);
+  // the spread and waveform tabs mount on their first opening and are then kept (a run survives switching)
+  const [opened, setOpened] = useState({ spread: false, waveforms: false });
+  if ((tab === "spread" || tab === "waveforms") && !opened[tab]) setOpened({ ...opened, [tab]: true });
   return (
     <section className="flex min-h-0 flex-col border-t border-paper-rule bg-paper-raised">
       <div role="tablist" aria-label="Analysis views" className="flex gap-0.5 border-b border-paper-rule px-2 pt-1">
@@ -383,17 +400,19 @@ function Dock({ tab, setTab, focusNode }: { tab: DockTab; setTab: (t: DockTab) =
           <NoiseBudgetPanel />
         </div>
       )}
-      {/* kept mounted while hidden, so a run in progress goes on and its result stays */}
-      <div id="dock-panel-spread" role="tabpanel" aria-labelledby="dock-tab-spread" hidden={tab !== "spread"} className="min-h-0 flex-1">
-        <SpreadPanel />
-      </div>
+      {/* mounted on first opening, then kept mounted while hidden, so a run in progress goes on and its result stays */}
+      {opened.spread && (
+        <div id="dock-panel-spread" role="tabpanel" aria-labelledby="dock-tab-spread" hidden={tab !== "spread"} className="min-h-0 flex-1">
+          <SpreadPanel />
+        </div>
+      )}
       {tab === "gainPlan" && (
         <div id="dock-panel-gainPlan" role="tabpanel" aria-labelledby="dock-tab-gainPlan" className="min-h-0 flex-1">
           <GainPlanPanel />
         </div>
       )}
       {/* mounted on first opening (it starts a worker), then kept so a run survives switching tabs */}
-      {waveformsOpened && (
+      {opened.waveforms && (
         <div id="dock-panel-waveforms" role="tabpanel" aria-labelledby="dock-tab-waveforms" hidden={tab !== "waveforms"} className="min-h-0 flex-1">
           <WaveformPanel chainId={chainId} visible={tab === "waveforms"} />
         </div>

@@ -38,6 +38,8 @@ export interface MeasuredState {
 }
 
 /** The measured overlays of the chain open in the workspace, recomputed as the computed curves change. */
+const NO_OVERLAYS: MeasuredOverlay[] = [];
+
 export function useMeasured(visible: boolean): MeasuredState {
   const chainId = useEditor((s) => s.chainId);
   const readOnly = useEditor((s) => s.readOnly);
@@ -76,7 +78,7 @@ export function useMeasured(visible: boolean): MeasuredState {
 
   const parsedKey = shownIds.map((id) => `${id}:${parsed[id] ? "1" : "0"}`).join(",");
   const overlays = useMemo<MeasuredOverlay[]>(() => {
-    if (!curves) return [];
+    if (!curves) return NO_OVERLAYS;
     const out: MeasuredOverlay[] = [];
     shownIds.forEach((id, k) => {
       const p = parsed[id];
@@ -88,7 +90,9 @@ export function useMeasured(visible: boolean): MeasuredState {
       const name = files.find((f) => f.id === id)?.name ?? id;
       out.push({ id, label: `${name} at ${node}`, colour: MEASURED_COLOURS[k % MEASURED_COLOURS.length], diff });
     });
-    return out;
+    // the same empty list every time: the plot redraws when its overlays change, and a file list arriving
+    // with nothing ticked changes nothing it draws
+    return out.length ? out : NO_OVERLAYS;
     // parsedKey stands for the parsed files (useQueries gives new arrays each render)
   }, [curves, shown, defaultNode, files, parsedKey]); // eslint-disable-line react-hooks/exhaustive-deps
 

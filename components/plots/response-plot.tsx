@@ -5,7 +5,7 @@
  * source band, Nyquist and the alias frequency, a readout at the cursor and CSV export of what is drawn.
  * Measured responses stored on the chain are laid over it with their difference (measured-overlay.tsx).
  */
-import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
+import { useCallback, useDeferredValue, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import { useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/editor-context";
 import type { PlotMode } from "@/lib/store/editor-store";
 import { pathTo } from "@/lib/store/graph";
@@ -54,7 +54,14 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
   const name = useEditor((s) => s.doc.name);
   const pathEnd = useEditor((s) => s.plotPathEnd);
   const actions = useEditorActions();
-  const { target, following } = useTarget();
+  // A new selection redraws the plot in a render of its own after the one that opens the inspector, so
+  // clicking a card shows its values without waiting for the plot of its path. The first target (nothing
+  // drawn before it) is taken at once: the first plot comes with the first analysis.
+  const now = useTarget();
+  const deferredTarget = useDeferredValue(now.target);
+  const deferredFollowing = useDeferredValue(now.following);
+  const target = deferredTarget ?? now.target;
+  const following = deferredTarget === null ? now.following : deferredFollowing;
   const el = useRef<HTMLDivElement>(null);
   const sectionRef = useRef<HTMLElement>(null);
   // the figure drawn as plain SVG until Plotly has loaded and drawn it (svg-figure.ts)
@@ -118,14 +125,23 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
   // the plot's width for placing marker labels, from a ResizeObserver: reading clientWidth while drawing
   // would force a layout of the page on every edit
   const widthRef = useRef(0);
+  /** the box the SVG drawing was made for */
+  const svgSizeRef = useRef("");
+  const drawSvg = useCallback((fig: Figure, width: number, height: number) => {
+    if (!svgEl.current) return;
+    svgEl.current.innerHTML = figureSvg(fig, width, height);
+    svgSizeRef.current = `${width}x${height}`;
+  }, []);
   useEffect(() => {
     const node = el.current;
     if (!node || typeof ResizeObserver === "undefined") return;
     const watch = new ResizeObserver((entries) => {
       const box = entries[0]?.contentRect;
       widthRef.current = box?.width ?? 0;
-      // the SVG has a fixed size: drawn again at the new one
-      if (box && svgEl.current?.firstChild && figRef.current) svgEl.current.innerHTML = figureSvg(figRef.current, box.width, box.height);
+      // the SVG has a fixed size: drawn again at a new one (not for the first report, of the size it was drawn at)
+      if (box && svgEl.current?.firstChild && figRef.current) {
+        if (svgSizeRef.current !== `${box.width}x${box.height}`) drawSvg(figRef.current, box.width, box.height);
+      }
       // Plotly follows the window's size by itself, not its box's (the measured-response list unfolding above it)
       // (only while displayed: a hidden tab's plot has no box, and Plotly refuses to resize it)
       else if (plotly.current && (node as { _fullLayout?: unknown })._fullLayout && box && box.width > 0 && box.height > 0)
@@ -133,7 +149,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
     });
     watch.observe(node);
     return () => watch.disconnect();
-  }, []);
+  }, [drawSvg]);
 
   useEffect(() => {
     let gone = false;
@@ -173,7 +189,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
       widthRef.current ||= box.width;
       const fig = buildFigure(series, markers, input.curves.f, widthRef.current || undefined);
       figRef.current = fig;
-      if (svgEl.current) svgEl.current.innerHTML = figureSvg(fig, box.width, box.height);
+      drawSvg(fig, box.width, box.height);
       setDrawnBy("svg");
       performance.mark(`cw:plot:${rev}`);
       return;

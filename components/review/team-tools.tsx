@@ -8,15 +8,18 @@
  */
 import { useEffect, useLayoutEffect, useRef, useState } from "react";
 import Link from "next/link";
+import dynamic from "next/dynamic";
 import { useQueryClient } from "@tanstack/react-query";
-import { CommentsPanel } from "@/components/comments/comments-panel";
 import { CommentMarkers } from "@/components/comments/comment-markers";
-import { SharePanel } from "@/components/sharing/share-panel";
 import { cx } from "@/components/ui/cx";
 import { useEditor, useEditorActions } from "@/lib/store/editor-context";
 import { ReviewBadge } from "./review-badge";
-import { ReviewPanel } from "./review-panel";
 import { teamKeys, useReviews, useThreads } from "./queries";
+
+// The side panels load when one is opened; none is open when a chain opens (unless a mail's link asks for one).
+const ReviewPanel = dynamic(() => import("./review-panel").then((m) => m.ReviewPanel), { ssr: false });
+const CommentsPanel = dynamic(() => import("@/components/comments/comments-panel").then((m) => m.CommentsPanel), { ssr: false });
+const SharePanel = dynamic(() => import("@/components/sharing/share-panel").then((m) => m.SharePanel), { ssr: false });
 
 type Tab = "review" | "comments" | "share";
 

@@ -230,6 +230,7 @@ async function firstInteraction(browser: Browser, baseUrl: string, storageState:
   for (let i = 0; i < runs; i++) {
     const context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1280, height: 800 }, storageState });
     // every main-thread task over 50 ms from the first script on (run by the browser before the page's own)
+    if (i === 0) await context.addInitScript("window.__cwWatchCard = true;");
     await context.addInitScript(LONG_TASKS_IN_PAGE);
     const page = await context.newPage();
     const cdp = PROFILE && i === 0 ? await context.newCDPSession(page) : null;
@@ -279,7 +280,24 @@ const LONG_TASK_WINDOW_MS = 6000;
 const LONG_TASKS_IN_PAGE = `window.__cwLongTasks = [];
 new PerformanceObserver((list) => { for (const e of list.getEntries()) window.__cwLongTasks.push([e.startTime, e.duration]); }).observe({ type: "longtask", buffered: true });
 window.__cwInput = [];
-for (const type of ["pointerdown", "keydown"]) addEventListener(type, (e) => window.__cwInput.push([type, e.timeStamp, performance.now()]), true);`;
+for (const type of ["pointerdown", "keydown"]) addEventListener(type, (e) => window.__cwInput.push([type, e.timeStamp, performance.now()]), true);
+window.__cwCard = {};
+// (first run only: the timeline's run)
+if (window.__cwWatchCard) (function watchCard() {
+  // the card the benchmark clicks, once a frame: first in the document, first visible, last moved
+  const el = document.querySelector('[data-testid="card-g3"]');
+  const c = window.__cwCard;
+  if (el) {
+    const now = performance.now();
+    c.inDom ??= now;
+    const r = el.getBoundingClientRect();
+    const box = [r.x, r.y, r.width, r.height].map(Math.round).join(",");
+    if (getComputedStyle(el).visibility === "visible" && r.width > 0) c.visible ??= now;
+    if (box !== c.box) { c.box = box; c.moved = now; }
+  }
+  // until the benchmark's first click (the card is then where it was clicked)
+  if (!window.__cwInput.length && performance.now() < 4000) requestAnimationFrame(watchCard);
+})();`;
 
 /** Where the first opening's time went: page milestones and the test's input, in ms since navigation start. */
 const TIMELINE_IN_PAGE = `(() => {
@@ -291,6 +309,8 @@ const TIMELINE_IN_PAGE = `(() => {
   for (const [type, at, handled] of window.__cwInput) out.push([type + " (handled " + (handled - at).toFixed(0) + " ms later)", at]);
   const edits = performance.getEntriesByType("mark").filter((m) => m.name.startsWith("cw:edit:"));
   out.push(["keystroke answered", edits[edits.length - 1]?.startTime], ["plotting library ready", mark("cw:plotly-ready")]);
+  const card = window.__cwCard;
+  out.push(["card g3 in the document (first frame)", card.inDom], ["card g3 visible (first frame showing it)", card.visible], ["card g3 last moved", card.moved]);
   return out.filter(([, t]) => t !== undefined).sort((a, b) => a[1] - b[1]).map(([what, t]) => t.toFixed(0).padStart(6) + " ms  " + what).join("\\n");
 })()`;
 
