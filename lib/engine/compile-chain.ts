@@ -79,6 +79,15 @@ export interface SweepResult {
   omega: Float64Array;
 }
 
+export interface SweepOptions {
+  /**
+   * false: an op-amp stage's input admittance (`yRe`/`yIm`) is worked out only where the sweep needs it,
+   * as a load on a passive section; elsewhere those entries keep what they held. Every response is the
+   * same (the tolerance spread, which reads no admittance). Default true.
+   */
+  admittances?: boolean;
+}
+
 export interface RetuneOptions {
   /**
    * Build the stage models into the buffers of the previous reusing retune (`PolyPool`, poly.ts) instead of
@@ -108,7 +117,7 @@ export interface CompiledChain {
   readonly models: (StageModel | null)[];
   readonly openLoops: (OpenLoop | null)[];
   /** complex response of every node at each frequency (Hz), cumulative and individual */
-  sweep(freqsHz: Float64Array, out?: SweepResult): SweepResult;
+  sweep(freqsHz: Float64Array, out?: SweepResult, opts?: SweepOptions): SweepResult;
   /**
    * Evaluates every transfer at one frequency (Hz; 0 gives the DC limit). Call before `transfersTo`.
    * At DC an integrator's output is left out (it has no DC operating point); the `drift` sources say where
@@ -149,6 +158,8 @@ class FastChain implements CompiledChain {
   private readonly integrators: number[];
   private readonly driftBase: number;
   private readonly opIdx: Int32Array;
+  /** per node: 1 when it hangs on a passive section's point (its admittance is that section's load) */
+  private readonly loadsSection: Uint8Array;
 
   // values (reloaded by retune)
   private readonly valA: Float64Array; // r (passive), resistance (source), 1/Rin (adc)
@@ -267,6 +278,10 @@ class FastChain implements CompiledChain {
     });
     const ops = this.role.reduce<number[]>((acc, r, i) => (r === ROLE_OPAMP ? [...acc, i] : acc), []);
     this.opIdx = Int32Array.from(ops);
+    this.loadsSection = Uint8Array.from(topo.nodes, (_, i) => {
+      const r = i === 0 ? -1 : this.role[topo.parent[i]];
+      return r === ROLE_SOURCE_SECTION || r === ROLE_RC_LP || r === ROLE_RC_HP || r === ROLE_NORTON ? 1 : 0;
+    });
     this.coef = new Float64Array(3 * KC * ops.length);
     this.loadValues(chain, true);
     this.driftBase = this.sources.length;
@@ -473,43 +488,13 @@ class FastChain implements CompiledChain {
     Yr: Float64Array[],
     Yi: Float64Array[],
     operatingPoint: boolean,
+    allLoads = true,
   ): void {
-    const { coef, opIdx, role, valA, valB, kids } = this;
+    const { opIdx, role, valA, valB, kids } = this;
     for (let q = 0; q < opIdx.length; q++) {
       const i = opIdx[q];
-      // p(jω) = (c0 − c2·ω² + c4·ω⁴) + j·ω·(c1 − c3·ω²)
-      const o = 3 * KC * q;
-      const d0 = coef[o], d1 = coef[o + 1], d2 = coef[o + 2], d3 = coef[o + 3], d4 = coef[o + 4];
-      const v0 = coef[o + 5], v1 = coef[o + 6], v2 = coef[o + 7], v3 = coef[o + 8], v4 = coef[o + 9];
-      const y0 = coef[o + 10], y1 = coef[o + 11], y2 = coef[o + 12], y3 = coef[o + 13], y4 = coef[o + 14];
-      const hr = Hr[i];
-      const hi = Hi[i];
-      const yr = Yr[i];
-      const yi = Yi[i];
       const hLim = operatingPoint && this.kinds[i] === "integrator" ? 0 : this.limH[i];
-      const yLim = this.limY[i];
-      for (let k = 0; k < nf; k++) {
-        const w = W[k];
-        if (w === 0) {
-          hr[k] = hLim;
-          hi[k] = 0;
-          yr[k] = yLim;
-          yi[k] = 0;
-          continue;
-        }
-        const w2 = w * w;
-        const ar = d0 - w2 * (d2 - d4 * w2);
-        const ai = w * (d1 - d3 * w2);
-        const inv = 1 / (ar * ar + ai * ai);
-        const br = v0 - w2 * (v2 - v4 * w2);
-        const bi = w * (v1 - v3 * w2);
-        const cr = y0 - w2 * (y2 - y4 * w2);
-        const ci = w * (y1 - y3 * w2);
-        hr[k] = (br * ar + bi * ai) * inv;
-        hi[k] = (bi * ar - br * ai) * inv;
-        yr[k] = (cr * ar + ci * ai) * inv;
-        yi[k] = (ci * ar - cr * ai) * inv;
-      }
+      this.stageKernel(q, W, nf, hLim, Hr[i], Hi[i], allLoads || this.loadsSection[i] === 1 ? Yr[i] : null, Yi[i]);
     }
     for (let i = this.n - 1; i >= 0; i--) {
       const r = role[i];
@@ -594,6 +579,46 @@ class FastChain implements CompiledChain {
         hi[k] = ti;
         yr[k] = tr * ar - ti * ai;
         yi[k] = tr * ai + ti * ar;
+      }
+    }
+  }
+
+  /**
+   * Op-amp stage q (node opIdx[q]) in the kernel: H = vo/den into hr/hi, and Y = iin/den into yr/yi unless
+   * yr is null (nothing reads it); at ω = 0 the limits (H: `hLim`).
+   * p(jω) = (c0 − c2·ω² + c4·ω⁴) + j·ω·(c1 − c3·ω²)
+   */
+  private stageKernel(q: number, W: Float64Array, nf: number, hLim: number, hr: Float64Array, hi: Float64Array, yr: Float64Array | null, yi: Float64Array): void {
+    const coef = this.coef;
+    const o = 3 * KC * q;
+    const d0 = coef[o], d1 = coef[o + 1], d2 = coef[o + 2], d3 = coef[o + 3], d4 = coef[o + 4];
+    const v0 = coef[o + 5], v1 = coef[o + 6], v2 = coef[o + 7], v3 = coef[o + 8], v4 = coef[o + 9];
+    const y0 = coef[o + 10], y1 = coef[o + 11], y2 = coef[o + 12], y3 = coef[o + 13], y4 = coef[o + 14];
+    const yLim = this.limY[this.opIdx[q]];
+    for (let k = 0; k < nf; k++) {
+      const w = W[k];
+      if (w === 0) {
+        hr[k] = hLim;
+        hi[k] = 0;
+        if (yr !== null) {
+          yr[k] = yLim;
+          yi[k] = 0;
+        }
+        continue;
+      }
+      const w2 = w * w;
+      const ar = d0 - w2 * (d2 - d4 * w2);
+      const ai = w * (d1 - d3 * w2);
+      const inv = 1 / (ar * ar + ai * ai);
+      const br = v0 - w2 * (v2 - v4 * w2);
+      const bi = w * (v1 - v3 * w2);
+      hr[k] = (br * ar + bi * ai) * inv;
+      hi[k] = (bi * ar - br * ai) * inv;
+      if (yr !== null) {
+        const cr = y0 - w2 * (y2 - y4 * w2);
+        const ci = w * (y1 - y3 * w2);
+        yr[k] = (cr * ar + ci * ai) * inv;
+        yi[k] = (ci * ar - cr * ai) * inv;
       }
     }
   }
@@ -899,14 +924,14 @@ class FastChain implements CompiledChain {
     }
   }
 
-  sweep(freqsHz: Float64Array, out?: SweepResult): SweepResult {
+  sweep(freqsHz: Float64Array, out?: SweepResult, opts?: SweepOptions): SweepResult {
     const n = this.n;
     const nf = freqsHz.length;
     const res = out && out.freqs.length === nf && out.cumRe.length === n ? out : allocSweep(n, nf);
     res.freqs.set(freqsHz);
     const W = res.omega;
     for (let k = 0; k < nf; k++) W[k] = TWO_PI * freqsHz[k];
-    this.kernel(W, nf, res.indRe, res.indIm, res.yRe, res.yIm, false);
+    this.kernel(W, nf, res.indRe, res.indIm, res.yRe, res.yIm, false, opts?.admittances !== false);
     const pole = res.pole;
     pole.fill(0);
     const { parent, role } = this;

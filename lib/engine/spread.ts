@@ -47,6 +47,8 @@ const SENS_STEP = 1e-4;
 /** bracket of the band-peak search in the spread (see the header) */
 const PEAK_TOL = 1e-6;
 const HIST_BINS = 24;
+/** the spread reads responses, never admittances: sweeps work out only the ones they need themselves */
+const RESPONSES_ONLY = { admittances: false } as const;
 
 export type SpreadDistribution = "uniform" | "normal";
 export type SpreadMetric = "dcGain" | "f0" | "q" | "margin";
@@ -485,7 +487,7 @@ class BuildFigures {
   private bandPeaks(): void {
     const { cc, grid, searches, searchNode, searchPlus } = this;
     const parent = cc.topology.parent;
-    const sw = (this.bandSweep = cc.sweep(grid, this.bandSweep));
+    const sw = (this.bandSweep = cc.sweep(grid, this.bandSweep, RESPONSES_ONLY));
     for (let j = 0; j < searches.length; j++) {
       const i = searchNode[j];
       const values = searches[j].values;
@@ -503,7 +505,7 @@ class BuildFigures {
       searches,
       (freqs, which, out, count) => {
         // a sweep of the `count` frequencies asked for, with buffers kept per count
-        const st = (this.stepSweeps[count] = cc.sweep(freqs.subarray(0, count), this.stepSweeps[count]));
+        const st = (this.stepSweeps[count] = cc.sweep(freqs.subarray(0, count), this.stepSweeps[count], RESPONSES_ONLY));
         for (let c = 0; c < count; c++) {
           const j = which[c];
           const i = searchNode[j];
@@ -783,7 +785,7 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
     if (unit === 0) {
       factors.fill(1);
       load(factors);
-      sweep = cc.sweep(grid, sweep);
+      sweep = cc.sweep(grid, sweep, RESPONSES_ONLY);
       nominalDb = ends.map((e) => {
         const out = new Float64Array(G);
         magDb(sweep!, e, out);
@@ -822,7 +824,7 @@ export function startSpread(chain: Chain, opts: SpreadOptions): SpreadRun {
       const t = trialsDone;
       for (let k = 0; k < P; k++) factors[k] = 1 + draw(rng, parts[k].tolerance, distribution);
       load(factors);
-      sweep = cc.sweep(grid, sweep);
+      sweep = cc.sweep(grid, sweep, RESPONSES_ONLY);
       for (let pi = 0; pi < ends.length; pi++) {
         magDb(sweep, ends[pi], dbScratch);
         const mn = envMin[pi];

@@ -173,6 +173,21 @@ if (!spreadOnly) {
     );
   line(1000, a);
   if (b) line(bigSpread, b);
+  // the spread's sweeps leave out the admittances nothing reads (SweepOptions), against a full sweep
+  {
+    const lean: number[] = [];
+    const full: number[] = [];
+    let ol = cc.sweep(g1k);
+    let of = cc.sweep(g1k);
+    for (let r = 0; r < 400; r++) {
+      lean.push(...times(1, () => (ol = cc.sweep(g1k, ol, { admittances: false }))));
+      full.push(...times(1, () => (of = cc.sweep(g1k, of))));
+    }
+    console.log(
+      `   one sweep, responses only      median ${(median(lean) * 1000).toFixed(1)} µs, with every admittance ${(median(full) * 1000).toFixed(1)} µs: ` +
+        `${(median(full) / median(lean)).toFixed(2)}× (${lean.length} sweeps each, alternated)`,
+    );
+  }
   // a build's reload of the values: the stage models built into the previous build's buffers (what the
   // spread does) against freshly allocated ones, alternated draw by draw so both see the same load
   {
@@ -186,7 +201,7 @@ if (!spreadOnly) {
       fresh.push(...times(1, () => cf.retune(d)));
     });
     console.log(
-      `   retune of one build           reusing the stage-model buffers median ${(median(reuse) * 1000).toFixed(1)} µs, fresh ${(median(fresh) * 1000).toFixed(1)} µs: ` +
+      `   retune of one build            reusing the stage-model buffers median ${(median(reuse) * 1000).toFixed(1)} µs, fresh ${(median(fresh) * 1000).toFixed(1)} µs: ` +
         `${(median(fresh) / median(reuse)).toFixed(2)}× (${draws.length} draws each)`,
     );
   }

@@ -498,6 +498,32 @@ describe("compileChain", () => {
       expect(draws).toBe(20);
     });
 
+    it("a sweep without the admittances nobody reads gives the same responses, bit for bit", () => {
+      // SweepOptions.admittances = false (the spread): each stage's admittance only where a passive
+      // section is loaded by it; every response and pole flag as the full sweep, on chains with fan-out,
+      // sections between stages and sensor fronts
+      const chains = [randomChain("loads-a", 9, { integrators: true }), randomChain("loads-b", 8), randomChain("loads-c", 7), randomSensorChain("loads-d", 6), randomSensorChain("loads-e", 6)];
+      const freqs = Float64Array.of(0, 0.5, 20, 3e3, 2e5, 5e6);
+      let sectionLoads = 0;
+      for (const ch of chains) {
+        const cc = compileChain(ch);
+        const full = cc.sweep(freqs);
+        const lean = compileChain(ch).sweep(freqs, undefined, { admittances: false });
+        for (const key of ["cumRe", "cumIm", "indRe", "indIm"] as const) lean[key].forEach((x, i) => expect(Array.from(x), `${key} ${cc.nodeIds[i]}`).toEqual(Array.from(full[key][i])));
+        expect(Array.from(lean.pole)).toEqual(Array.from(full.pole));
+        // the admittances a section sees are there too
+        cc.nodeIds.forEach((_, i) => {
+          const p = cc.topology.parent[i];
+          if (i > 0 && ["rcLowpass", "rcHighpass"].includes(cc.kinds[p]) && cc.models[i]) {
+            sectionLoads++;
+            expect(Array.from(lean.yRe[i])).toEqual(Array.from(full.yRe[i]));
+            expect(Array.from(lean.yIm[i])).toEqual(Array.from(full.yIm[i]));
+          }
+        });
+      }
+      expect(sectionLoads).toBeGreaterThan(2);
+    });
+
     it("refuses a chain of another shape", () => {
       const a = randomChain("shape", 5);
       const cc = compileChain(a);
