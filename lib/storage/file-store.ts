@@ -23,6 +23,17 @@ function checkKey(key: string): void {
   if (!KEY.test(key)) throw new Error(`file store: malformed key ${JSON.stringify(key)}`);
 }
 
+/** Where the disk store keeps a key's bytes under `root`: `<root>/<first two characters>/<key>`. */
+export function diskFilePath(root: string, key: string): string {
+  checkKey(key);
+  return path.join(root, key.slice(0, 2), key);
+}
+
+/** The folder of attached files for a database file: `files/` beside it. */
+export function filesFolder(databasePath: string): string {
+  return path.join(path.dirname(path.resolve(databasePath)), "files");
+}
+
 /**
  * Files under `<data folder>/files/` (the folder of DATABASE_PATH). A put writes a temporary file
  * beside the target and renames it into place, which is atomic on one file system.
@@ -31,8 +42,7 @@ export class DiskFileStore implements FileStore {
   constructor(private readonly root: string) {}
 
   private file(key: string): string {
-    checkKey(key);
-    return path.join(this.root, key.slice(0, 2), key);
+    return diskFilePath(this.root, key);
   }
 
   async put(key: string, bytes: Uint8Array): Promise<void> {
@@ -64,5 +74,5 @@ export class DiskFileStore implements FileStore {
 
 /** The store for this process: files beside the database (follows DATABASE_PATH, so tests get their own). */
 export function fileStore(): FileStore {
-  return new DiskFileStore(path.join(path.dirname(path.resolve(env().databasePath)), "files"));
+  return new DiskFileStore(filesFolder(env().databasePath));
 }
