@@ -82,8 +82,14 @@ function Values({ kind, params }: { kind: NodeKind; params: StageFlowNode["data"
   );
 }
 
-function StageLine({ stage }: { stage: StageResult | undefined }) {
-  if (!stage) return null;
+/**
+ * Until the chain's first analysis is back, a card keeps room for the lines the analysis fills (an empty
+ * line of the same height), so the cards do not grow and shift under the pointer when the figures arrive.
+ */
+const useFirstAnalysisPending = () => useEditor((s) => s.live === null);
+
+function StageLine({ stage, pending }: { stage: StageResult | undefined; pending: boolean }) {
+  if (!stage) return pending ? <p aria-hidden className="num invisible mt-1 text-[10.5px]">gain</p> : null;
   const gain =
     stage.dcGain === null ? "DC gain unbounded" : `gain ${stage.dcGain < 0 ? "−" : ""}${fmtCompact(Math.abs(stage.dcGain), "none")}`;
   const corner = stage.f0 === null ? "" : stage.q === null ? ` · fc ${fmt(stage.f0, "hertz")}` : ` · f0 ${fmt(stage.f0, "hertz")} Q ${stage.q.toFixed(2)}`;
@@ -92,10 +98,11 @@ function StageLine({ stage }: { stage: StageResult | undefined }) {
 
 const OpAmpCard = memo(function OpAmpCard(props: CardProps) {
   const stage = useEditor((s) => s.live?.stageById[props.id]);
+  const pending = useFirstAnalysisPending();
   return (
     <CardShell props={props} status={stage?.status}>
       <Values kind={props.type as NodeKind} params={props.data.params} />
-      <StageLine stage={stage} />
+      <StageLine stage={stage} pending={pending} />
       <RailSpan
         className="mt-1.5"
         rails={props.data.rails}
@@ -110,14 +117,17 @@ const OpAmpCard = memo(function OpAmpCard(props: CardProps) {
 
 const PassiveCard = memo(function PassiveCard(props: CardProps) {
   const stage = useEditor((s) => s.live?.stageById[props.id]);
+  const pending = useFirstAnalysisPending();
   return (
     <CardShell props={props}>
       <Values kind={props.type as NodeKind} params={props.data.params} />
-      <StageLine stage={stage} />
-      {stage?.dcOut !== undefined && (
+      <StageLine stage={stage} pending={pending} />
+      {stage?.dcOut !== undefined ? (
         <p className="num mt-0.5 text-[10.5px] text-graphite-500">
           DC {stage.dcOut ? `${fmt(stage.dcOut.min, "volt")} … ${fmt(stage.dcOut.max, "volt")}` : "unbounded"}
         </p>
+      ) : (
+        pending && <p aria-hidden className="num invisible mt-0.5 text-[10.5px]">DC</p>
       )}
     </CardShell>
   );
@@ -142,16 +152,19 @@ const SourceCard = memo(function SourceCard(props: CardProps) {
 
 const AdcCard = memo(function AdcCard(props: CardProps) {
   const adc = useEditor((s) => s.live?.adcById[props.id]) as (AdcResult & { dcIn?: StageResult["dcOut"]; peakIn?: StageResult["peakOut"] }) | undefined;
+  const pending = useFirstAnalysisPending();
   const p = props.data.params;
   const range = typeof p.vinLow === "number" && typeof p.vinHigh === "number" && p.vinLow < p.vinHigh ? { low: p.vinLow, high: p.vinHigh } : null;
   return (
     <CardShell props={props} status={adc?.status}>
       <Values kind="adc" params={p} />
-      {adc && (
+      {adc ? (
         <p className="num mt-1 text-[10.5px] text-graphite-700">
           {adc.rangeUse === null ? "range use —" : `uses ${(adc.rangeUse * 100).toFixed(0)} % of range`}
           {adc.enob !== null && ` · ENOB ${adc.enob.toFixed(1)}`}
         </p>
+      ) : (
+        pending && <p aria-hidden className="num invisible mt-1 text-[10.5px]">range</p>
       )}
       <RailSpan
         className="mt-1.5"

@@ -9,7 +9,7 @@ import { useRouter } from "next/navigation";
 import dynamic from "next/dynamic";
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { isSourceKind } from "@/lib/chain/types";
-import { ReactFlowProvider, useReactFlow } from "@xyflow/react";
+import { ReactFlowProvider, useReactFlow, useStoreApi } from "@xyflow/react";
 import { Notice } from "@/components/ui/notice";
 import { SafetyCaution } from "@/components/safety-caution";
 import { ResponsePlot } from "@/components/plots/response-plot";
@@ -60,6 +60,9 @@ export function Workspace({ chain }: WorkspaceProps) {
   );
 }
 
+/** the longest the first analysis waits for React Flow to show the cards */
+const FIRST_ANALYSIS_WAIT_MS = 400;
+
 type DockTab = "response" | "findings" | "headroom" | "noise" | "spread" | "gainPlan" | "waveforms";
 
 function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
@@ -70,15 +73,30 @@ function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
   const [tab, setTab] = useState<DockTab>("response");
   const [keysOpen, setKeysOpen] = useState(false);
 
+  const flowStore = useStoreApi();
   useEffect(() => {
-    // The first analysis waits for the frame after hydration: that frame measures the cards and fits them
-    // into view (work that would otherwise queue behind the analysis and the first plot), then the
-    // analysis runs in the next task.
+    // The first analysis waits for the cards. React Flow keeps them hidden until it has measured them and
+    // fitted them into view, which takes a resize report and two renders after hydration; started at once,
+    // the analysis and the first plot ran ahead of those and the cards showed only after the plot. So the
+    // analysis starts in the task after the frame that shows the fitted cards (or after FIRST_ANALYSIS_WAIT_MS
+    // if React Flow never reports them measured).
     let driver: ReturnType<typeof startBrowserAnalysis> | null = null;
     let timer: ReturnType<typeof setTimeout> | null = null;
-    const frame = requestAnimationFrame(() => {
-      timer = setTimeout(() => (driver = startBrowserAnalysis(store)), 0);
-    });
+    let frame = 0;
+    let started = false;
+    const begin = () => {
+      if (started) return;
+      started = true;
+      unsubscribe();
+      clearTimeout(fallback);
+      frame = requestAnimationFrame(() => {
+        timer = setTimeout(() => (driver = startBrowserAnalysis(store)), 0);
+      });
+    };
+    const cardsShown = () => flowStore.getState().nodesInitialized || flowStore.getState().nodes.length === 0;
+    const unsubscribe = flowStore.subscribe(() => void (cardsShown() && begin()));
+    const fallback = setTimeout(begin, FIRST_ANALYSIS_WAIT_MS);
+    if (cardsShown()) begin();
     const auto = startAutosave(store, async ({ id, baseVersion, document }) => {
       const saved = await saveChain({ id, baseVersion, document });
       return { version: saved.version };
@@ -90,13 +108,15 @@ function WorkspaceBody({ role }: { role: ChainDto["role"] }) {
     };
     window.addEventListener("beforeunload", beforeUnload);
     return () => {
+      unsubscribe();
+      clearTimeout(fallback);
       cancelAnimationFrame(frame);
       if (timer) clearTimeout(timer);
       driver?.stop();
       auto.stop();
       window.removeEventListener("beforeunload", beforeUnload);
     };
-  }, [store]);
+  }, [store, flowStore]);
 
   const focusNode = useCallback(
     (id: string) => {
