@@ -27,7 +27,7 @@ function figureOf(set: CurveSet) {
   const markers: Marker[] = [];
   if (set.band) markers.push({ kind: "band", f: Math.max(set.band.fLow, set.f[0]), f2: set.band.fHigh, label: "band" });
   if (set.sampleRate && set.sampleRate / 2 < set.f[set.f.length - 1]) markers.push({ kind: "nyquist", f: set.sampleRate / 2, label: "fs/2" });
-  const fig = buildFigure(series, markers, f, WIDTH);
+  const fig = buildFigure(series, markers, f, WIDTH, set.magnitudeAxis);
   const layout = { ...fig.layout, width: WIDTH, height: HEIGHT, font: { family: "Helvetica, Arial, sans-serif", size: 11, color: "#3c4047" }, paper_bgcolor: "#ffffff", plot_bgcolor: "#ffffff" };
   return { data: fig.data, layout };
 }

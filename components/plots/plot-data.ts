@@ -8,6 +8,7 @@ import type { StageResult } from "@/lib/chain/types";
 import type { LiveCurves } from "@/lib/store/live-analysis";
 import type { PlotMode } from "@/lib/store/editor-store";
 import { formatQuantity } from "@/lib/units";
+import { magnitudeDbLabel } from "@/lib/engine/sensors";
 
 export interface PlotSeries {
   id: string;
@@ -39,6 +40,17 @@ export interface PlotInput {
   band: { fLow: number; fHigh: number } | null;
   /** sample rate of the ADC that ends the path, when it does */
   sampleRate: number | null;
+  /** what the source puts out, per unit of which the cascade is (V, A or C; V when left out) */
+  perUnit?: "V" | "A" | "C";
+}
+
+/**
+ * The magnitude axis's title: from the source, the cascade is per unit of the source's quantity (dB re
+ * 1 V/A from a photodiode); each stage on its own is shown as it is (the front end's own transfer is
+ * per that unit too, the others V/V), so that view keeps plain "dB".
+ */
+export function magnitudeTitle(mode: PlotMode, perUnit: "V" | "A" | "C" = "V"): string {
+  return mode === "cumulative" ? magnitudeDbLabel(perUnit) : "dB";
 }
 
 const RAD_TO_DEG = 180 / Math.PI;
@@ -243,7 +255,7 @@ export interface Figure {
  * drawn in one muted trace per panel (the curves one after another, separated by gaps), so the cost of a
  * redraw does not grow with the number of stages. The cursor readout names each curve.
  */
-export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64Array, plotWidthPx = 700): Figure {
+export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64Array, plotWidthPx = 700, magnitudeAxis = "dB"): Figure {
   const x = plainX(f);
   const data: Record<string, unknown>[] = [];
   const others = series.filter((s) => !s.emphasis);
@@ -314,7 +326,7 @@ export function buildFigure(series: PlotSeries[], markers: Marker[], f: Float64A
       spikedash: "solid",
       exponentformat: "SI",
     },
-    yaxis: { domain: [0.53, 1], title: { text: "dB", standoff: 4 }, gridcolor: "#e3dfd6", zerolinecolor: "#a1a5ab", range: yRange },
+    yaxis: { domain: [0.53, 1], title: { text: magnitudeAxis, standoff: 4 }, gridcolor: "#e3dfd6", zerolinecolor: "#a1a5ab", range: yRange },
     yaxis2: { domain: [0, 0.45], title: { text: "phase °", standoff: 4 }, gridcolor: "#e3dfd6", zerolinecolor: "#a1a5ab", range: [-185, 185], tickvals: [-180, -90, 0, 90, 180] },
     shapes,
     annotations,
@@ -347,10 +359,11 @@ export function plotLegend(series: PlotSeries[]): { name: string; colour: string
   return out;
 }
 
-/** CSV of what is plotted: frequency, then magnitude and phase per series. */
-export function plotCsv(series: PlotSeries[], f: Float64Array, mode: PlotMode): string {
+/** CSV of what is plotted: frequency, then magnitude (with its reference when it is not V/V) and phase per series. */
+export function plotCsv(series: PlotSeries[], f: Float64Array, mode: PlotMode, perUnit: "V" | "A" | "C" = "V"): string {
   const what = mode === "cumulative" ? "from source" : "own";
-  const fields = ["frequency_Hz", ...series.flatMap((s) => [`${s.id} ${what} magnitude_dB`, `${s.id} ${what} phase_deg`])];
+  const mag = `magnitude_${magnitudeTitle(mode, perUnit)}`;
+  const fields = ["frequency_Hz", ...series.flatMap((s) => [`${s.id} ${what} ${mag}`, `${s.id} ${what} phase_deg`])];
   const rows: (number | string)[][] = [];
   for (let k = 0; k < f.length; k++) {
     const row: (number | string)[] = [f[k]];

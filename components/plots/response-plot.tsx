@@ -10,8 +10,8 @@ import { useEditor, useEditorActions, useEditorStoreApi } from "@/lib/store/edit
 import type { PlotMode } from "@/lib/store/editor-store";
 import { pathTo } from "@/lib/store/graph";
 import { isSourceKind } from "@/lib/chain/types";
-import { sourceSignal } from "@/lib/engine/sensors";
-import { buildFigure, figureMarks, figureShape, hoverIndex, plotCsv, plotLegend, plotMarkers, plotSeries, readoutAt, type Figure, type PlotInput } from "./plot-data";
+import { sourceSignal, transferPerUnit } from "@/lib/engine/sensors";
+import { buildFigure, figureMarks, figureShape, hoverIndex, magnitudeTitle, plotCsv, plotLegend, plotMarkers, plotSeries, readoutAt, type Figure, type PlotInput } from "./plot-data";
 import { loadPlotlyWhenWanted, type PlotlyLike } from "./plotly-loader";
 import { drawCurvesDirectly } from "./direct-draw";
 import { figureSvg } from "./svg-figure";
@@ -82,14 +82,16 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
     for (const n of chain.nodes) names[n.id] = n.label ? `${n.id} ${n.label}` : n.id;
     const src = chain.nodes.find((n) => isSourceKind(n.kind));
     const end = chain.nodes.find((n) => n.id === target);
+    const signal = src ? sourceSignal(src) : null;
     return {
       curves,
       path,
       mode,
       names,
       stages: stageById,
-      band: src ? (({ fLow, fHigh }) => ({ fLow, fHigh }))(sourceSignal(src)) : null,
+      band: signal ? { fLow: signal.fLow, fHigh: signal.fHigh } : null,
       sampleRate: end?.kind === "adc" ? end.params.sampleRate : null,
+      perUnit: signal ? transferPerUnit(signal.output) : "V",
     };
   }, [curves, chain, stageById, target, mode]);
 
@@ -187,7 +189,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
       // Plotly not loaded yet: the whole figure as SVG, under where Plotly will draw
       const box = node.getBoundingClientRect();
       widthRef.current ||= box.width;
-      const fig = buildFigure(series, markers, input.curves.f, widthRef.current || undefined);
+      const fig = buildFigure(series, markers, input.curves.f, widthRef.current || undefined, magnitudeTitle(input.mode, input.perUnit));
       figRef.current = fig;
       drawSvg(fig, box.width, box.height);
       setDrawnBy("svg");
@@ -195,7 +197,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
       return;
     }
     // measured responses are drawn by Plotly only (the plain SVG shows the computed curves)
-    const fig = withMeasured(buildFigure(series, markers, input.curves.f, widthRef.current || undefined), measured.overlays);
+    const fig = withMeasured(buildFigure(series, markers, input.curves.f, widthRef.current || undefined, magnitudeTitle(input.mode, input.perUnit)), measured.overlays);
     figRef.current = fig;
     const shape = figureShape(fig);
     const marks = figureMarks(fig);
@@ -261,7 +263,7 @@ export function ResponsePlot({ visible = true }: { visible?: boolean }) {
 
   const exportCsv = () => {
     if (!input) return;
-    downloadText(`${name.replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "") || "chain"}-response-${target}.csv`, plotCsv(series, input.curves.f, mode));
+    downloadText(`${name.replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "") || "chain"}-response-${target}.csv`, plotCsv(series, input.curves.f, mode, input.perUnit));
   };
 
   return (

@@ -20,6 +20,20 @@ import { bandGrid, bandMax } from "./grids";
 /** What a source's output is: the unit of dc, amplitude and of the emf transfer's denominator. */
 export type SourceOutput = "voltage" | "differential" | "current" | "charge";
 
+/**
+ * The unit a chain's transfer from its source is per: a cascade from a photodiode is in volts per ampere
+ * and from a piezo in volts per coulomb, so its magnitude in dB is relative to 1 V/A or 1 V/C, not a
+ * plain ratio. Voltage and differential sources give V/V.
+ */
+export function transferPerUnit(output: SourceOutput): "V" | "A" | "C" {
+  return output === "current" ? "A" : output === "charge" ? "C" : "V";
+}
+
+/** "dB", or "dB re 1 V/A" and "dB re 1 V/C" for a transfer from a current or charge source. */
+export function magnitudeDbLabel(perUnit: "V" | "A" | "C"): string {
+  return perUnit === "V" ? "dB" : `dB re 1 V/${perUnit}`;
+}
+
 export interface SourceSignal {
   output: SourceOutput;
   /** nominal DC of the output quantity (V, V differential, A; 0 for a charge) */

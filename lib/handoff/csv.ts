@@ -4,7 +4,8 @@
  */
 import Papa from "papaparse";
 import type { AnalysisResult, Chain } from "../chain/types";
-import { compileChain } from "../engine";
+import { compileChain, magnitudeDbLabel, sourceSignal, transferPerUnit } from "../engine";
+import { isSourceKind } from "../chain/types";
 import { formatQuantity } from "../units";
 import type { Bom } from "./bom";
 import type { BringUpSheet } from "./bring-up";
@@ -96,7 +97,10 @@ export function plotCsv(chain: Chain, result: AnalysisResult, table: PlotTable):
   const sw = f.length ? cc.sweep(Float64Array.from(f)) : null;
   const index = new Map(cc.nodeIds.map((id, i) => [id, i]));
   const nodes = signalOrder(chain).filter((n) => !isFeed(chain, n) && index.has(n.id));
-  const fields = ["frequency_Hz", ...nodes.flatMap((n) => [`${nodeTitle(n)} magnitude_dB`, `${nodeTitle(n)} phase_deg`])];
+  // from a current or charge source the cascade is in V/A or V/C, and the column says what its dB are relative to
+  const src = chain.nodes.find((n) => isSourceKind(n.kind));
+  const mag = `magnitude_${magnitudeDbLabel(src ? transferPerUnit(sourceSignal(src).output) : "V")}`;
+  const fields = ["frequency_Hz", ...nodes.flatMap((n) => [`${nodeTitle(n)} ${mag}`, `${nodeTitle(n)} phase_deg`])];
   const rows = f.map((fk, k) => {
     const row: Cell[] = [fk];
     for (const n of nodes) {

@@ -3,7 +3,8 @@
  * cascade from the source, on the analysis grid) and what the plots mark. Pure.
  */
 import type { AnalysisResult, Chain } from "../chain/types";
-import { compileChain } from "../engine";
+import { isSourceKind } from "../chain/types";
+import { compileChain, magnitudeDbLabel, sourceSignal, transferPerUnit } from "../engine";
 import { gainPhase, nodeTitle } from "./order";
 
 export interface CurveSet {
@@ -14,6 +15,8 @@ export interface CurveSet {
   series: { id: string; name: string; db: (number | null)[]; ph: (number | null)[]; emphasis: boolean }[];
   band: { fLow: number; fHigh: number } | null;
   sampleRate: number | null;
+  /** the magnitude axis: "dB", or "dB re 1 V/A" / "dB re 1 V/C" from a current or charge source */
+  magnitudeAxis: string;
 }
 
 export function pathCurves(chain: Chain, result: AnalysisResult): CurveSet[] {
@@ -36,15 +39,16 @@ export function pathCurves(chain: Chain, result: AnalysisResult): CurveSet[] {
       return { id, name: nodeTitle(byId.get(id)!), db, ph, emphasis: id === end };
     });
     const src = byId.get(path.nodes[0]);
-    const sp = (src?.params ?? {}) as unknown as Record<string, unknown>;
+    const signal = src && isSourceKind(src.kind) ? sourceSignal(src) : null;
     const endNode = byId.get(end);
     return {
       end,
       title: `${path.nodes.map((id) => byId.get(id)?.label ?? id).join(" → ")}`,
       f,
       series,
-      band: typeof sp.fHigh === "number" ? { fLow: typeof sp.fLow === "number" ? sp.fLow : 0, fHigh: sp.fHigh } : null,
+      band: signal ? { fLow: signal.fLow, fHigh: signal.fHigh } : null,
       sampleRate: endNode?.kind === "adc" ? endNode.params.sampleRate : null,
+      magnitudeAxis: magnitudeDbLabel(signal ? transferPerUnit(signal.output) : "V"),
     };
   });
 }

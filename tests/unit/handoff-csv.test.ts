@@ -4,8 +4,9 @@
  */
 import Papa from "papaparse";
 import { describe, expect, it } from "vitest";
-import { analyzeChain } from "@/lib/engine";
-import { bomCsv, bomGroupsCsv, bringUpCsv, buildBom, buildBringUpSheet, plotCsv, withSpread } from "@/lib/handoff";
+import { analyzeChain, sourceSignal } from "@/lib/engine";
+import { isSourceKind } from "@/lib/chain/types";
+import { bomCsv, bomGroupsCsv, bringUpCsv, buildBom, buildBringUpSheet, pathCurves, plotCsv, withSpread } from "@/lib/handoff";
 import { demo } from "./handoff-support";
 
 const read = (csv: string) => Papa.parse<Record<string, string>>(csv.trim(), { header: true }).data;
@@ -83,6 +84,29 @@ describe("hand-off CSV", () => {
       expect(Number(rows[k].frequency_Hz)).toBe(resp.f[k]);
       expect(Number(rows[k][key])).toBeCloseTo(resp.magDb[k]!, 9);
       expect(Number(rows[k][ph])).toBeCloseTo(resp.phaseDeg[k]!, 9);
+    }
+  });
+
+  it("response data: the magnitude columns say what their dB are relative to (V/A from a photodiode, V/C from a piezo)", () => {
+    const { turbidity, hull, ballast } = demo();
+    const header = (c: typeof hull) => Object.keys(read(plotCsv(c, analyzeChain(c), "response"))[0]).filter((k) => k.includes("magnitude"));
+    expect(header(turbidity).length).toBeGreaterThan(0);
+    expect(header(turbidity).every((k) => k.endsWith(" magnitude_dB re 1 V/A"))).toBe(true);
+    expect(header(hull).every((k) => k.endsWith(" magnitude_dB re 1 V/C"))).toBe(true);
+    // a bridge is a differential voltage: a plain ratio
+    expect(header(ballast).every((k) => k.endsWith(" magnitude_dB"))).toBe(true);
+  });
+
+  it("report plots: the magnitude axis per unit of the source, and the band as the source describes it", () => {
+    const { turbidity, hull, ballast } = demo();
+    for (const [c, axis] of [[turbidity, "dB re 1 V/A"], [hull, "dB re 1 V/C"], [ballast, "dB"]] as const) {
+      const sets = pathCurves(c, analyzeChain(c));
+      const sig = sourceSignal(c.nodes.find((n) => isSourceKind(n.kind))!);
+      expect(sets.length).toBeGreaterThan(0);
+      for (const set of sets) {
+        expect(set.magnitudeAxis).toBe(axis);
+        expect(set.band).toEqual({ fLow: sig.fLow, fHigh: sig.fHigh });
+      }
     }
   });
 

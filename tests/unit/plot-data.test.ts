@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import Papa from "papaparse";
-import { ACCENT, GROUPED, OTHERS_COLOUR, buildFigure, dbPhase, figureMarks, figureShape, labelRows, hoverIndex, plotCsv, plotLegend, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
+import { ACCENT, GROUPED, OTHERS_COLOUR, buildFigure, dbPhase, figureMarks, figureShape, labelRows, hoverIndex, magnitudeTitle, plotCsv, plotLegend, plotMarkers, plotSeries, readoutAt, withGaps, type PlotInput } from "@/components/plots/plot-data";
 import type { LiveCurves } from "@/lib/store/live-analysis";
 import type { StageResult } from "@/lib/chain/types";
 
@@ -156,6 +156,27 @@ describe("plotCsv", () => {
     expect(Number(parsed[3][0])).toBe(100);
     expect(Number(parsed[3][1])).toBeCloseTo(-3.0103, 4);
     expect(Number(parsed[3][2])).toBeCloseTo(-45, 9);
+  });
+
+  it("says what the dB are relative to when the cascade starts at a current or charge source", () => {
+    const s = plotSeries(input());
+    const head = (mode: "cumulative" | "individual", unit: "V" | "A" | "C") => Papa.parse<string[]>(plotCsv(s, f, mode, unit), { skipEmptyLines: true }).data[0];
+    expect(head("cumulative", "A")[1]).toBe("u1 from source magnitude_dB re 1 V/A");
+    expect(head("cumulative", "C")[3]).toBe("adc from source magnitude_dB re 1 V/C");
+    expect(head("cumulative", "V")[1]).toBe("u1 from source magnitude_dB");
+    // each stage on its own is mostly V/V: the plain label stays
+    expect(head("individual", "A")[1]).toBe("u1 own magnitude_dB");
+  });
+});
+
+describe("magnitudeTitle", () => {
+  it("labels the magnitude axis per unit of the source for the cascade only", () => {
+    expect(magnitudeTitle("cumulative", "A")).toBe("dB re 1 V/A");
+    expect(magnitudeTitle("cumulative", "C")).toBe("dB re 1 V/C");
+    expect(magnitudeTitle("cumulative", "V")).toBe("dB");
+    expect(magnitudeTitle("individual", "C")).toBe("dB");
+    const fig = buildFigure(plotSeries(input()), [], f, 700, magnitudeTitle("cumulative", "A"));
+    expect((fig.layout.yaxis as { title: { text: string } }).title.text).toBe("dB re 1 V/A");
   });
 });
 
