@@ -90,8 +90,13 @@ const useFirstAnalysisPending = () => useEditor((s) => s.live === null);
 
 function StageLine({ stage, pending }: { stage: StageResult | undefined; pending: boolean }) {
   if (!stage) return pending ? <p aria-hidden className="num invisible mt-1 text-[10.5px]">gain</p> : null;
+  // a TIA's gain is a transimpedance, per ampere of the sensor's current (800 kV/A)
   const gain =
-    stage.dcGain === null ? "DC gain unbounded" : `gain ${stage.dcGain < 0 ? "−" : ""}${fmtCompact(Math.abs(stage.dcGain), "none")}`;
+    stage.dcGain === null
+      ? "DC gain unbounded"
+      : stage.kind === "transimpedance" && stage.dcGain !== 0
+        ? `gain ${stage.dcGain < 0 ? "−" : ""}${fmt(Math.abs(stage.dcGain), "none")}V/A`
+        : `gain ${stage.dcGain < 0 ? "−" : ""}${fmtCompact(Math.abs(stage.dcGain), "none")}`;
   const corner = stage.f0 === null ? "" : stage.q === null ? ` · fc ${fmt(stage.f0, "hertz")}` : ` · f0 ${fmt(stage.f0, "hertz")} Q ${stage.q.toFixed(2)}`;
   return <p className="num mt-1 text-[10.5px] text-graphite-700">{gain + corner}</p>;
 }

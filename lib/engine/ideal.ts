@@ -13,6 +13,9 @@
  *   (the section oscillates)
  * - MFB high-pass (c1 in, r1 A→vref, c2 A→out, c3 A→(−), r2 (−)→out): ω0 = 1/√(r1r2c2c3),
  *   Q = √(r1r2c2c3)/(r1·(c1 + c2 + c3))
+ * - transimpedance −rf/(1 + s·rf·cf) and charge amplifier −s·rf/(1 + s·rf·cf) per coulomb (lib/chain/README.md):
+ *   first order, f0 = 1/(2π·rf·cf) (the TIA's feedback pole, the charge amplifier's low corner), q = null;
+ *   both null when cf is 0 (a TIA with no feedback capacitor has no ideal corner)
  * - gain stages, source, ADC: no frequency dependence, both null
  */
 import type { ChainNode } from "../chain/types";
@@ -66,6 +69,11 @@ export function idealCharacteristics(node: ChainNode): IdealCharacteristics {
       const { r1, r2, r3, c1, c2 } = node.params;
       const t = Math.sqrt(r2 * r3 * c1 * c2);
       return { f0: 1 / (TWO_PI * t), q: t / (c2 * (r2 + r3 + (r2 * r3) / r1)), order: 2 };
+    }
+    case "transimpedance":
+    case "chargeAmp": {
+      const { rf, cf } = node.params;
+      return rf > 0 && cf > 0 ? { f0: 1 / (TWO_PI * rf * cf), q: null, order: 1 } : { f0: null, q: null, order: 0 };
     }
     default:
       return { f0: null, q: null, order: 0 };

@@ -44,6 +44,19 @@ describe("ideal H(s) of the new kinds against their closed forms", () => {
     expect(h.abs() / (1e9 / Math.SQRT2)).toBeCloseTo(1, 10);
     expect((h.arg() * 180) / Math.PI).toBeCloseTo(-135, 8);
   });
+  it("the stage's f0 is 1/(2π·rf·cf) for both (first-order pole of rf ∥ cf, derived from the H(s) above); none without cf", () => {
+    const tia = analyzeChain(line([photodiode(), op("t", "transimpedance", { rf: 1e6, cf: 2e-12 }), adc("adc")]));
+    const t = tia.paths[0].stages.find((s) => s.id === "t")!;
+    expect(t.f0! / (1 / (TAU * 1e6 * 2e-12))).toBeCloseTo(1, 12); // 79.577 kHz
+    expect(t.q).toBeNull();
+    // where the ideal |H| is rf/√2: the corner the card and the plot's marker show
+    const ch = line([photodiode(), op("t", "transimpedance", { rf: 1e6, cf: 2e-12 })]);
+    expect(at(ch, "t", t.f0!).abs() / (1e6 / Math.SQRT2)).toBeCloseTo(1, 10);
+    const amp = analyzeChain(line([piezo(), op("q", "chargeAmp", { cf: 1e-9, rf: 1e9 }), adc("adc")])).paths[0].stages.find((s) => s.id === "q")!;
+    expect(amp.f0! * TAU * 1e9 * 1e-9).toBeCloseTo(1, 12); // 0.159 Hz
+    const bare = analyzeChain(line([photodiode(), op("t", "transimpedance", { rf: 1e6, cf: 0 }), adc("adc")])).paths[0].stages.find((s) => s.id === "t")!;
+    expect(bare.f0).toBeNull();
+  });
   it("difference amplifier: gain r2/r1 with r4/r3 = r2/r1 and no legs; 0 common-mode gain (derived from the two dividers)", () => {
     const ch = line([bridge({ resistance: 1e-9 }), op("d", "differenceAmp", { r1: 1e4, r2: 1e5, r3: 1e4, r4: 1e5 })]);
     expect(at(ch, "d", 1).re).toBeCloseTo(10, 6);
