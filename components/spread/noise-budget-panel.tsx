@@ -17,6 +17,8 @@ interface BudgetNoise {
   foldBands?: { low: number; high: number; k: number }[];
   analogOverQuantDb?: number | null;
   bandGain?: number | null;
+  /** the source's own unit, which the input-referred figures are in (the band gain is V per it) */
+  inputUnit?: "V" | "A" | "C";
   inputReferredRms?: number | null;
   inputReferredTotalRms?: number | null;
   inputDensity?: (number | null)[];
@@ -28,6 +30,9 @@ interface BudgetNoise {
 export function sourceWords(element: string): string {
   if (element === "source") return "source noise density";
   if (element === "resistance") return "source resistance (Johnson)";
+  if (element === "shot") return "shot noise of the sensor current (2qI)";
+  if (element === "shunt") return "sensor shunt resistance (Johnson)";
+  if (element === "leakage") return "sensor leakage resistance (Johnson)";
   if (element === "en") return "op-amp voltage noise en";
   if (element === "in+") return "op-amp current noise at (+)";
   if (element === "in-") return "op-amp current noise at (−)";
@@ -36,6 +41,9 @@ export function sourceWords(element: string): string {
 
 const LINE_CLASSES = ["stroke-accent-600", "stroke-status-tight", "stroke-status-clip", "stroke-status-ok", "stroke-graphite-500", "stroke-accent-300"];
 const volts = (v: number | null | undefined) => fmt(v, "volt", 3);
+/** an input-referred figure in the source's unit: 8.48 pA from a photodiode, 3.1 fC from a piezo */
+const inSourceUnit = (v: number | null | undefined, unit: "V" | "A" | "C" = "V") =>
+  unit === "V" ? volts(v) : unit === "A" ? fmt(v, "ampere", 3) : v === null || v === undefined ? "—" : `${fmt(v, "none", 3)}C`;
 const share = (x: unknown) => (typeof x === "number" ? `${(x * 100).toFixed(1)} %` : "—");
 
 type Key = "stage" | "source" | "rms" | "share" | "totalRms" | "totalShare";
@@ -76,10 +84,13 @@ function Budget({ path }: { path: PathResult }) {
         <dd className="num">{volts(nz.outputRms)} rms</dd>
         <dt className="text-graphite-700">over all the converter samples (to fMax)</dt>
         <dd className="num" data-testid="noise-total">{volts(nz.totalRms)} rms</dd>
-        <dt className="text-graphite-700">referred to the input (÷ band gain {nz.bandGain ? fmt(nz.bandGain, "none", 4) : "—"})</dt>
-        <dd className="num">{volts(nz.inputReferredRms)} rms</dd>
+        <dt className="text-graphite-700">
+          referred to the input (÷ band gain {nz.bandGain ? fmt(nz.bandGain, "none", 4) : "—"}
+          {nz.inputUnit && nz.inputUnit !== "V" ? `V/${nz.inputUnit}` : ""})
+        </dt>
+        <dd className="num" data-testid="noise-input-referred">{inSourceUnit(nz.inputReferredRms, nz.inputUnit)} rms</dd>
         <dt className="text-graphite-700">input-referred, to fMax</dt>
-        <dd className="num">{volts(nz.inputReferredTotalRms)} rms</dd>
+        <dd className="num">{inSourceUnit(nz.inputReferredTotalRms, nz.inputUnit)} rms</dd>
         {adc && (
           <>
             <dt className="text-graphite-700">quantisation noise (LSB/√12)</dt>

@@ -29,7 +29,7 @@ import { ratioMagAt } from "./poly";
 import { toMagnitudePhase } from "./response";
 import { isOpAmpKind } from "./topology";
 import { isSourceKind } from "../chain/types";
-import { sourceSignal } from "./sensors";
+import { sourceSignal, transferPerUnit } from "./sensors";
 import { frontEndChecks } from "./sensors-checks";
 import { ENGINE_VERSION } from "./version";
 
@@ -370,7 +370,7 @@ export function analyzeChain(chain: Chain, opts: AnalyzeOptions = {}): AnalysisR
     const noise = {
       ...nz,
       density,
-      ...(withNoise ? noiseBudgetFigures(chain, cc, end, freqs, resp, band[end].gain, nz) : {}),
+      ...(withNoise ? noiseBudgetFigures(chain, cc, end, freqs, resp, band[end].gain, nz, transferPerUnit(sp.output)) : {}),
       ...(withNoise && adc ? aliasFigures(chain, cc, end, freqs, resp, band[end].gain, adc.quantNoiseRms, nz.totalRms) : {}),
     };
     return { nodes: path.nodes, response: { f, magDb, phaseDeg }, stages, noise, adc };
@@ -496,7 +496,9 @@ const finiteOrNull = (x: number) => (Number.isFinite(x) ? x : null);
  * Extra noise figures for the budget (noise-budget panel, report): the signal gain over the source band
  * (max |H| from the EMF to the path end), the noise referred to the input through it (rms over the noise
  * band and over all the converter samples, and the density curve divided by |H(f)|), and the density of
- * the largest contributors (by rms over what the converter samples) on the response grid.
+ * the largest contributors (by rms over what the converter samples) on the response grid. The
+ * input-referred figures are in the source's own unit (`inputUnit`): volts, or amperes from a photodiode
+ * and coulombs from a piezo, whose transfers are per ampere and per coulomb.
  */
 function noiseBudgetFigures(
   chain: Chain,
@@ -506,6 +508,7 @@ function noiseBudgetFigures(
   resp: SweepResult,
   bandGain: number | null,
   nz: { outputRms: number; totalRms: number; contributions: { nodeId: string; element: string; totalRms?: unknown }[] },
+  inputUnit: "V" | "A" | "C",
 ) {
   const g = bandGain !== null && bandGain > 0 ? bandGain : null;
   const top = [...nz.contributions].sort((a, b) => (b.totalRms as number) - (a.totalRms as number)).slice(0, BUDGET_TOP);
@@ -514,6 +517,7 @@ function noiseBudgetFigures(
   const inputDensity = total.map((d, k) => finiteOrNull(d / Math.hypot(resp.cumRe[end][k], resp.cumIm[end][k])));
   return {
     bandGain: g,
+    inputUnit,
     inputReferredRms: g === null ? null : nz.outputRms / g,
     inputReferredTotalRms: g === null ? null : nz.totalRms / g,
     inputDensity,

@@ -169,6 +169,24 @@ describe("charge-amp low corner, noise and cautions", () => {
     const kT4 = 4 * BOLTZMANN * 298.15;
     expect(shot / shunt).toBeCloseTo(Math.sqrt((2 * 1.602176634e-19 * i) / (kT4 / rsh)), 9);
   });
+  it("input-referred noise of a photodiode channel is a current: √((2qI + 4kT/Rsh + 4kT/rf)·B) through a flat ideal TIA (Schottky; Johnson–Nyquist; derived)", () => {
+    const i = 1e-6;
+    const rsh = 1e8;
+    const rf = 1e5;
+    // ideal op-amp (no part), no cf: the TIA is −rf at every frequency, so the noise band B is exactly fHigh − fLow
+    const ch = line([photodiode({ dc: i, shuntResistance: rsh, capacitance: 0, fLow: 10, fHigh: 1e3 }), op("t", "transimpedance", { rf, cf: 0 })], {}, { noiseLow: 10, noiseHigh: 1e3 });
+    const nz = analyzeChain(ch).paths[0].noise as { inputUnit?: string; bandGain?: number; inputReferredRms?: number; outputRms: number };
+    expect(nz.inputUnit).toBe("A");
+    expect(nz.bandGain! / rf).toBeCloseTo(1, 9);
+    const kT4 = 4 * BOLTZMANN * ch.analysis.temperatureK;
+    const want = Math.sqrt((2 * 1.602176634e-19 * i + kT4 / rsh + kT4 / rf) * (1e3 - 10));
+    expect(nz.inputReferredRms! / want).toBeCloseTo(1, 6); // about 0.76 nA rms
+    // a piezo's figures are charges, a bridge's volts
+    const q = analyzeChain(line([piezo(), op("q", "chargeAmp", { cf: 1e-9, rf: 1e9 })])).paths[0].noise as { inputUnit?: string };
+    expect(q.inputUnit).toBe("C");
+    const v = analyzeChain(line([bridge(), op("ia", "inAmp", { rg: 1e3, rf: 24.5e3, rd: 1e4, cmrrDb: null })])).paths[0].noise as { inputUnit?: string };
+    expect(v.inputUnit).toBe("V");
+  });
   it("every sensor source carries the safety caution when marked", () => {
     for (const src of [bridge({ safety: "body-connected" }), photodiode({ safety: "mains-connected" })]) {
       const next = src.kind === "bridge" ? op("ia", "inAmp", { rg: 1e3, rf: 24.5e3, rd: 1e4, cmrrDb: null }) : op("t", "transimpedance", { rf: 1e5, cf: 1e-11 });
