@@ -9,12 +9,24 @@ export const fmtCompact = (value: number | null | undefined, unit: QuantityUnit 
 
 export const fmtVolts = (v: number | null | undefined): string => fmt(v, "volt", 3);
 
-/** A gain as a plain ratio with its sign (−10.0) and in dB (20.0 dB); unbounded gains are named so. */
-export function fmtGain(g: number | null | undefined): string {
+/** 800000 per ampere → "800.0 kV/A"; 0 → "0 V/C" (the SI prefix joins the unit, a bare number gets a space). */
+function perSensorUnit(v: number, perUnit: "A" | "C"): string {
+  const q = fmt(v, "none", 4).trim();
+  return /[a-zA-Zµ]$/.test(q) ? `${q}V/${perUnit}` : `${q} V/${perUnit}`;
+}
+
+/**
+ * A gain with its sign and in dB: a plain ratio (−10.0, 20.0 dB), or per ampere or coulomb of the sensor
+ * for a front end or a whole path from a photodiode or piezo (−800.0 kV/A, 118.1 dB re 1 V/A).
+ * Unbounded gains are named so.
+ */
+export function fmtGain(g: number | null | undefined, perUnit: "V" | "A" | "C" = "V"): string {
   if (g === null || g === undefined) return "unbounded";
   if (!Number.isFinite(g)) return "—";
-  const db = g === 0 ? "−∞ dB" : `${(20 * Math.log10(Math.abs(g))).toFixed(1)} dB`;
-  return `${g < 0 ? "−" : ""}${fmtCompact(Math.abs(g), "none", 4)} (${db.replace("-", "−")})`;
+  const ref = perUnit === "V" ? "dB" : `dB re 1 V/${perUnit}`;
+  const db = g === 0 ? `−∞ ${ref}` : `${(20 * Math.log10(Math.abs(g))).toFixed(1)} ${ref}`;
+  const value = perUnit === "V" ? fmtCompact(Math.abs(g), "none", 4) : perSensorUnit(Math.abs(g), perUnit);
+  return `${g < 0 ? "−" : ""}${value} (${db.replace("-", "−")})`;
 }
 
 export const fmtDb = (db: number | null | undefined, digits = 1): string =>

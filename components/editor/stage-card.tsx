@@ -14,7 +14,9 @@ import type { AdcResult, StageResult } from "@/lib/chain/types";
 import type { StageFlowNode } from "./flow-types";
 import { Pictogram } from "./pictograms";
 import { RailSpan } from "./rail-span";
-import { fmt, fmtCompact } from "./format";
+import { fmt, fmtCompact, fmtGain } from "./format";
+import { useSourceKind } from "./stage-figures";
+import { stageGainPerUnit } from "@/lib/engine/sensors";
 
 type CardProps = NodeProps<StageFlowNode>;
 
@@ -89,13 +91,15 @@ function Values({ kind, params }: { kind: NodeKind; params: StageFlowNode["data"
 const useFirstAnalysisPending = () => useEditor((s) => s.live === null);
 
 function StageLine({ stage, pending }: { stage: StageResult | undefined; pending: boolean }) {
+  const sourceKind = useSourceKind();
   if (!stage) return pending ? <p aria-hidden className="num invisible mt-1 text-[10.5px]">gain</p> : null;
-  // a TIA's gain is a transimpedance, per ampere of the sensor's current (800 kV/A)
+  // a front end's gain is per ampere or coulomb of the sensor (a TIA's −800 kV/A)
+  const per = stageGainPerUnit(stage.kind, sourceKind);
   const gain =
     stage.dcGain === null
       ? "DC gain unbounded"
-      : stage.kind === "transimpedance" && stage.dcGain !== 0
-        ? `gain ${stage.dcGain < 0 ? "−" : ""}${fmt(Math.abs(stage.dcGain), "none")}V/A`
+      : per !== "V" && stage.dcGain !== 0
+        ? `gain ${fmtGain(stage.dcGain, per).replace(/ \(.*$/, "")}`
         : `gain ${stage.dcGain < 0 ? "−" : ""}${fmtCompact(Math.abs(stage.dcGain), "none")}`;
   const corner = stage.f0 === null ? "" : stage.q === null ? ` · fc ${fmt(stage.f0, "hertz")}` : ` · f0 ${fmt(stage.f0, "hertz")} Q ${stage.q.toFixed(2)}`;
   return <p className="num mt-1 text-[10.5px] text-graphite-700">{gain + corner}</p>;

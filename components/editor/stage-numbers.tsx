@@ -6,13 +6,13 @@
  */
 import type { StageResult } from "@/lib/chain/types";
 import { isSourceKind } from "@/lib/chain/types";
-import type { TiaStability } from "@/lib/engine/sensors";
+import { stageGainPerUnit, transferPerUnit, sourceOutputOf, type TiaStability } from "@/lib/engine/sensors";
 import { neighbours } from "@/lib/units/eseries";
 import { useEditor, useEditorActions } from "@/lib/store/editor-context";
 import type { DraftNode } from "@/lib/store/draft";
 import { fmt, fmtDb, fmtGain, fmtVolts } from "./format";
 import { RailSpan } from "./rail-span";
-import { marginOf } from "./stage-figures";
+import { marginOf, useSourceKind } from "./stage-figures";
 
 function Row({ name, children, testId }: { name: string; children: React.ReactNode; testId?: string }) {
   return (
@@ -33,6 +33,7 @@ export function StageNumbers({ node }: { node: DraftNode }) {
   const adc = useEditor((s) => s.live?.adcById[node.id]);
   const reason = useEditor((s) => s.live?.reasonById[node.id]);
   const warnings = useEditor((s) => s.live?.warningsByNode[node.id]);
+  const sourceKind = useSourceKind();
 
   if (isSourceKind(node.kind)) return null;
   if (!stage && !adc) {
@@ -46,13 +47,13 @@ export function StageNumbers({ node }: { node: DraftNode }) {
   return (
     <section className="flex flex-col gap-2 border-t border-paper-rule pt-2" data-testid="stage-numbers">
       <h3 className="text-[12px] font-semibold uppercase tracking-wide text-graphite-500">Figures</h3>
-      {stage && <StageFigures stage={stage} railsOf={node.rails} />}
+      {stage && <StageFigures stage={stage} railsOf={node.rails} perUnit={stageGainPerUnit(node.kind, sourceKind)} />}
       {stage && <LoopFigures node={node} stage={stage} unstable={!!warnings?.some((w) => w.code === "tia-stability")} />}
       {adc && (
         <dl className="grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 text-[12.5px]">
           <Row name="LSB">{fmt(adc.lsb, "volt")}</Row>
           <Row name="Range used">{adc.rangeUse === null ? "—" : `${(adc.rangeUse * 100).toFixed(1)} %`}</Row>
-          <Row name="Path DC gain">{fmtGain(adc.pathDcGain)}</Row>
+          <Row name="Path DC gain">{fmtGain(adc.pathDcGain, sourceKind ? transferPerUnit(sourceOutputOf(sourceKind)) : "V")}</Row>
           <Row name="Alias attenuation">{fmtDb(adc.aliasAttenuationDb)}</Row>
           <Row name="Ideal SNR">{fmtDb(adc.idealSnrDb)}</Row>
           <Row name="SNR">{fmtDb(adc.snrDb)}</Row>
@@ -72,7 +73,7 @@ export function StageNumbers({ node }: { node: DraftNode }) {
   );
 }
 
-function StageFigures({ stage, railsOf }: { stage: StageResult; railsOf?: { low: number; high: number } }) {
+function StageFigures({ stage, railsOf, perUnit }: { stage: StageResult; railsOf?: { low: number; high: number }; perUnit: "V" | "A" | "C" }) {
   const margin = marginOf(stage);
   const slew = stage.slewNeeded;
   return (
@@ -87,7 +88,7 @@ function StageFigures({ stage, railsOf }: { stage: StageResult; railsOf?: { low:
         />
       )}
       <dl className="grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 text-[12.5px]">
-        <Row name="DC gain" testId="fig-gain">{fmtGain(stage.dcGain)}</Row>
+        <Row name="DC gain" testId="fig-gain">{fmtGain(stage.dcGain, perUnit)}</Row>
         {stage.f0 !== null && (
           <Row name={stage.q === null ? "Corner" : "f0 · Q"} testId="fig-f0q">
             {fmt(stage.f0, "hertz")}

@@ -6,7 +6,9 @@
  * tolerance moves each figure, and the share of builds that clip. Every number is the engine's.
  */
 import { memo, useDeferredValue, useEffect, useMemo, useRef, useState } from "react";
-import type { Chain } from "@/lib/chain/types";
+import type { Chain, SourceKind } from "@/lib/chain/types";
+import { isSourceKind } from "@/lib/chain/types";
+import { stageGainPerUnit } from "@/lib/engine/sensors";
 import type { SpreadDistribution, SpreadMetric, SpreadResult, SpreadStat } from "@/lib/engine/spread";
 import { SPREAD_LIMITS } from "@/lib/engine/spread";
 import { useEditor } from "@/lib/store/editor-context";
@@ -137,7 +139,7 @@ export function SpreadPanel() {
       <div className="mt-2">
         <SnapPanel />
       </div>
-      {shown && <SpreadResults result={shown} />}
+      {shown && <SpreadResults result={shown} chain={ranOn} />}
     </div>
   );
 }
@@ -162,7 +164,7 @@ function Progress({ state, result }: { state: RunState; result: SpreadResult | n
   );
 }
 
-const SpreadResults = memo(function SpreadResults({ result }: { result: SpreadResult }) {
+const SpreadResults = memo(function SpreadResults({ result, chain }: { result: SpreadResult; chain: Chain | null }) {
   const [pathIdx, setPathIdx] = useState(0);
   const stages = result.stages.filter((s) => s.dcGain || s.f0 || s.q || s.margin);
   const [stageId, setStageId] = useState<string | null>(null);
@@ -227,7 +229,7 @@ const SpreadResults = memo(function SpreadResults({ result }: { result: SpreadRe
           )}
         </section>
       </div>
-      <WorstCaseTable result={result} />
+      <WorstCaseTable result={result} chain={chain} />
       <SensitivityTable result={result} />
     </div>
   );
@@ -252,8 +254,14 @@ function StatHistogram({ metric, stat }: { metric: SpreadMetric; stat: SpreadSta
   );
 }
 
-function WorstCaseTable({ result }: { result: SpreadResult }) {
+function WorstCaseTable({ result, chain }: { result: SpreadResult; chain: Chain | null }) {
   const rows = result.worstCase;
+  const sourceKind = chain?.nodes.find((n) => isSourceKind(n.kind))?.kind as SourceKind | undefined;
+  // a front end's DC gain is per ampere or coulomb of the sensor: the figure says so
+  const figureWords = (nodeId: string, metric: SpreadMetric) => {
+    const per = metric === "dcGain" ? stageGainPerUnit(chain?.nodes.find((n) => n.id === nodeId)?.kind ?? "", sourceKind) : "V";
+    return per === "V" ? METRIC_WORDS[metric] : `${METRIC_WORDS[metric]} (V/${per})`;
+  };
   return (
     <section aria-label="Worst case">
       <h3 className="text-[12.5px] font-medium">Worst case: every part at the end of its tolerance that pushes the figure down, then up</h3>
@@ -273,7 +281,7 @@ function WorstCaseTable({ result }: { result: SpreadResult }) {
             return (
               <tr key={`${w.nodeId}-${w.metric}`} className="num border-b border-paper-rule/60">
                 <td className="px-2 py-0.5 font-sans">{w.nodeId}</td>
-                <td className="px-2 py-0.5 font-sans">{METRIC_WORDS[w.metric]}</td>
+                <td className="px-2 py-0.5 font-sans">{figureWords(w.nodeId, w.metric)}</td>
                 <td className="px-2 py-0.5">{formatMetric(w.metric, w.nominal)}</td>
                 <td className={`px-2 py-0.5 ${w.metric === "margin" && (w.low ?? 0) < 0 ? "text-status-clip" : ""}`}>{formatMetric(w.metric, w.low)}</td>
                 <td className="px-2 py-0.5">{formatMetric(w.metric, w.high)}</td>

@@ -20,6 +20,19 @@ import { bandGrid, bandMax } from "./grids";
 /** What a source's output is: the unit of dc, amplitude and of the emf transfer's denominator. */
 export type SourceOutput = "voltage" | "differential" | "current" | "charge";
 
+/** What each source kind puts out (as `sourceSignal` describes it), known from the kind alone. */
+export function sourceOutputOf(kind: AnySourceNode["kind"]): SourceOutput {
+  return kind === "photodiode" ? "current" : kind === "piezo" ? "charge" : kind === "bridge" ? "differential" : "voltage";
+}
+
+/**
+ * What a stage's gain is per: a transimpedance or charge amplifier takes the sensor's current or charge
+ * itself, so its gain is in V/A or V/C; every other stage is fed a voltage (V/V).
+ */
+export function stageGainPerUnit(stageKind: string, sourceKind: AnySourceNode["kind"] | undefined): "V" | "A" | "C" {
+  return sourceKind && (stageKind === "transimpedance" || stageKind === "chargeAmp") ? transferPerUnit(sourceOutputOf(sourceKind)) : "V";
+}
+
 /**
  * The unit a chain's transfer from its source is per: a cascade from a photodiode is in volts per ampere
  * and from a piezo in volts per coulomb, so its magnitude in dB is relative to 1 V/A or 1 V/C, not a
