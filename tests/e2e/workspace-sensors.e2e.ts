@@ -66,6 +66,16 @@ describe.skipIf(ctx.skip !== null)("a sensor source in the workspace (production
     const saved = await serverChain(page, id);
     expect(saved.document.nodes.find((n) => n.id === "u1")!.params.cf).toBeCloseTo(22e-12, 18);
 
+    // the TIA's gain is a transimpedance and its corner 1/(2π·rf·cf) = 1/(2π·100 kΩ·22 pF) = 72.3 kHz; the
+    // cascade from a current is in dB re 1 V/A, and the noise referred to the input is a current
+    const rf = saved.document.nodes.find((n) => n.id === "u1")!.params.rf as number;
+    await expect.poll(() => page.getByTestId("fig-gain").textContent()).toMatch(new RegExp(`^−${(rf / 1e3).toFixed(1)} kV/A \\(${(20 * Math.log10(rf)).toFixed(1)} dB re 1 V/A\\)$`));
+    await expect.poll(() => card(page, "u1").textContent()).toMatch(new RegExp(`kV/A · fc ${(1 / (2 * Math.PI * rf * 22e-12) / 1e3).toPrecision(3)} kHz`));
+    await page.getByRole("tab", { name: "Response" }).click();
+    await expect.poll(() => page.getByTestId("response-plot").locator("text").allTextContents(), { timeout: 15_000 }).toContain("dB re 1 V/A");
+    await page.getByRole("tab", { name: "Noise budget" }).click();
+    await expect.poll(() => page.getByTestId("noise-input-referred").textContent(), { timeout: 15_000 }).toMatch(/^[\d.]+ [fpnµ]A rms$/);
+
     // a sensor on a person: the caution on the page and on the card
     await expect(page.getByTestId("safety-caution").count()).resolves.toBe(0);
     await selectCard(page, "src");
