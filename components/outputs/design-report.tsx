@@ -4,8 +4,9 @@
  * response plots are drawn in the browser (ReportPlots).
  */
 import type { ReactNode } from "react";
-import type { AnalysisResult, Chain } from "@/lib/chain/types";
-import { ENGINE_VERSION } from "@/lib/engine";
+import type { AnalysisResult, Chain, SourceKind } from "@/lib/chain/types";
+import { isSourceKind } from "@/lib/chain/types";
+import { ENGINE_VERSION, stageGainPerUnit } from "@/lib/engine";
 import {
   buildBom,
   buildBringUpSheet,
@@ -80,6 +81,8 @@ export function DesignReport(p: ReportProps) {
   const curves = pathCurves(chain, result);
   const spread = reportSpread(chain);
   const names = new Map(chain.nodes.map((n) => [n.id, n.label ? `${n.id} ${n.label}` : n.id]));
+  const sourceKind = chain.nodes.find((n) => isSourceKind(n.kind))?.kind as SourceKind | undefined;
+  const gainUnits = new Map(chain.nodes.map((n) => [n.id, stageGainPerUnit(n.kind, sourceKind)]));
   return (
     <article className="design-report mx-auto max-w-[52rem] bg-white text-[12.5px] leading-snug text-graphite-900" data-paper={p.paper} data-testid="design-report">
       <header className="report-keep">
@@ -181,7 +184,7 @@ export function DesignReport(p: ReportProps) {
 
       <Section title="Spread from tolerances" id="r-spread">
         {spread.ok ? (
-          <SpreadSummaryView summary={spread.summary} names={names} />
+          <SpreadSummaryView summary={spread.summary} names={names} gainUnits={gainUnits} />
         ) : (
           <p data-testid="report-spread">The spread over the part tolerances could not be run on this chain: {spread.reason}.</p>
         )}

@@ -35,7 +35,15 @@ export function spreadMethod(s: SpreadSummary): string {
   );
 }
 
-export function SpreadSummaryView({ summary: s, names }: { summary: SpreadSummary; names: Map<string, string> }) {
+/**
+ * `gainUnits`: what each stage's DC gain is per (V/V, or V/A and V/C for the front end that takes a
+ * photodiode's current or a piezo's charge); the figure's name says it when it is not a plain ratio.
+ */
+export function SpreadSummaryView({ summary: s, names, gainUnits }: { summary: SpreadSummary; names: Map<string, string>; gainUnits?: Map<string, "V" | "A" | "C"> }) {
+  const figureName = (id: string, metric: SpreadMetric) => {
+    const per = metric === "dcGain" ? (gainUnits?.get(id) ?? "V") : "V";
+    return per === "V" ? FIGURE_WORDS[metric] : `${FIGURE_WORDS[metric]} (V/${per})`;
+  };
   const name = (id: string | null) => (id === null ? "—" : (names.get(id) ?? id));
   const rows = s.stages.filter((st) => st.figures.length > 0);
   return (
@@ -63,7 +71,7 @@ export function SpreadSummaryView({ summary: s, names }: { summary: SpreadSummar
                     {name(st.id)}
                   </td>
                 )}
-                <td className={tdText}>{FIGURE_WORDS[f.metric]}</td>
+                <td className={tdText}>{figureName(st.id, f.metric)}</td>
                 <td className={td}>{figureText(f.metric, f.nominal)}</td>
                 <td className={td}>
                   {figureText(f.metric, f.p5)} … {figureText(f.metric, f.p95)}

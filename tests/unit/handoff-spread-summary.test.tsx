@@ -117,4 +117,15 @@ describe("the design report's spread section", () => {
     // the bring-up table in the same report carries its spread too
     expect(page).toContain("DC over the 200 builds");
   });
+
+  it("names a front end's DC gain per ampere of the photodiode's current, and other stages' as plain ratios", () => {
+    const { turbidity } = demo();
+    const html = renderToStaticMarkup(
+      <DesignReport chainId="c" chain={turbidity} result={analyzeChain(turbidity)} revision={1} version={1} reviewState="draft" reviews={[]} generatedAt="2026-12-04 02:00" paper="a4" />,
+    );
+    const section = html.slice(html.indexOf('data-testid="report-spread-stages"'));
+    const rows = text(section.slice(0, section.indexOf("</table>")));
+    expect(rows).toMatch(/tia TIA 800 kΩ DC gain \(V\/A\) −800000/);
+    expect(rows).toMatch(/mfb Low-pass 156 Hz DC gain −1 /);
+  });
 });
