@@ -12,6 +12,7 @@ import { useEditor, useEditorActions } from "@/lib/store/editor-context";
 import { insertAfter } from "@/lib/store/solve-apply";
 import type { DraftNode } from "@/lib/store/draft";
 import { Notice } from "@/components/ui/notice";
+import { ToolForm, ToolPanel } from "./tool-panel";
 
 const RESPONSE_WORDS: Record<FilterResponse, string> = { butterworth: "Butterworth (flat)", bessel: "Bessel (flat delay)", chebyshev: "Chebyshev (ripple)" };
 const KIND_WORDS: Record<string, string> = { sallenKeyLowpass: "Sallen-Key", mfbLowpass: "MFB", lossyIntegrator: "first-order (inverting)" };
@@ -82,20 +83,8 @@ export function FilterWizard({ node }: { node: DraftNode }) {
   };
 
   return (
-    <section className="flex flex-col gap-2 border-t border-paper-rule pt-2" data-testid="filter-wizard" aria-label="Insert a low-pass filter">
-      <div className="flex items-center justify-between">
-        <h3 className="text-[12px] font-semibold uppercase tracking-wide text-graphite-500">Low-pass of order N</h3>
-        <button type="button" onClick={() => setOpen(false)} className="text-[12px] text-graphite-500 hover:text-graphite-900">
-          Close
-        </button>
-      </div>
-      <form
-        className="grid grid-cols-[6.5rem_1fr] items-center gap-x-2 gap-y-1"
-        onSubmit={(e) => {
-          e.preventDefault();
-          run();
-        }}
-      >
+    <ToolPanel testId="filter-wizard" label="Insert a low-pass filter" title="Low-pass of order N" onClose={() => setOpen(false)}>
+      <ToolForm onSubmit={run}>
         <label className="contents">
           <span className="text-[12.5px] text-graphite-700">Response</span>
           <select name="fw-response" value={response} onChange={(e) => setResponse(e.target.value as FilterResponse)} className={input}>
@@ -147,7 +136,7 @@ export function FilterWizard({ node }: { node: DraftNode }) {
         <button type="submit" className="justify-self-start rounded-card bg-accent-700 px-3 py-1 text-[12.5px] font-medium text-white hover:bg-accent-800" data-testid="filter-design">
           Design
         </button>
-      </form>
+      </ToolForm>
       <p className="text-[11.5px] text-graphite-500">{SECTION_ORDER_RULE} Each section within 1 % of its f0, Q and gain.</p>
       {error && <Notice tone="problem">{error}</Notice>}
       {design?.problem && (
@@ -194,6 +183,6 @@ export function FilterWizard({ node }: { node: DraftNode }) {
           Undo the insertion
         </button>
       )}
-    </section>
+    </ToolPanel>
   );
 }

@@ -12,6 +12,7 @@ import { useEditor, useEditorActions } from "@/lib/store/editor-context";
 import { applyParams } from "@/lib/store/solve-apply";
 import type { DraftNode } from "@/lib/store/draft";
 import { Notice } from "@/components/ui/notice";
+import { ToolForm, ToolPanel } from "./tool-panel";
 
 type FieldKey = "gain" | "f0" | "q" | "minInputImpedance" | "maxCapacitance";
 const FIELDS: { key: FieldKey; label: string; unit: QuantityUnit; always?: boolean }[] = [
@@ -109,20 +110,8 @@ function SolveForm({ node, kind }: { node: DraftNode; kind: SolvableKind }) {
     );
   }
   return (
-    <section className="flex flex-col gap-2 border-t border-paper-rule pt-2" data-testid="solve-panel" aria-label="Solve from targets">
-      <div className="flex items-center justify-between">
-        <h3 className="text-[12px] font-semibold uppercase tracking-wide text-graphite-500">Solve from targets</h3>
-        <button type="button" onClick={() => setOpen(false)} className="text-[12px] text-graphite-500 hover:text-graphite-900">
-          Close
-        </button>
-      </div>
-      <form
-        className="grid grid-cols-[6.5rem_1fr] items-center gap-x-2 gap-y-1"
-        onSubmit={(e) => {
-          e.preventDefault();
-          solve();
-        }}
-      >
+    <ToolPanel testId="solve-panel" label="Solve from targets" title="Solve from targets" onClose={() => setOpen(false)}>
+      <ToolForm onSubmit={solve}>
         {FIELDS.filter((f) => f.always || needs.includes(f.key as "gain")).map((f) => (
           <label key={f.key} className="contents">
             <span className="text-[12.5px] text-graphite-700">{f.label}</span>
@@ -159,7 +148,7 @@ function SolveForm({ node, kind }: { node: DraftNode; kind: SolvableKind }) {
         <button type="submit" className="justify-self-start rounded-card bg-accent-700 px-3 py-1 text-[12.5px] font-medium text-white hover:bg-accent-800" data-testid="solve-run">
           Solve
         </button>
-      </form>
+      </ToolForm>
       <p className="text-[11.5px] text-graphite-500">Capacitors from 100 pF, resistors 1 kΩ to 1 MΩ; ranked by error, then by sensitivity (Σ|S|, lower is more robust to part tolerances).</p>
       {fieldError && <Notice tone="problem">{fieldError}</Notice>}
       {applied && (
@@ -210,6 +199,6 @@ function SolveForm({ node, kind }: { node: DraftNode; kind: SolvableKind }) {
           ))}
         </ol>
       )}
-    </section>
+    </ToolPanel>
   );
 }
