@@ -135,8 +135,10 @@ function LoopFigures({ node, stage, unstable }: { node: DraftNode; stage: StageR
       {stab.peakingDb !== null && <Row name="Peaking" testId="fig-peaking">{`${stab.peakingDb.toFixed(1)} dB`}</Row>}
       {stab.crossover !== null && <Row name="Loop crossover">{fmt(stab.crossover, "hertz")}</Row>}
       <Row name="Input capacitance">{fmt(stab.cin, "farad")}</Row>
-      {suggested !== null && (
-        <Row name="Suggested cf" testId="fig-suggested-cf">
+      {/* below the rule's cf it is a suggestion; above it, the least cf the rule (about 45°) asks for. A charge
+          amplifier's cf sets its gain, so there it is shown only when cf is below it. */}
+      {suggested !== null && (cf < suggested || node.kind !== "chargeAmp") && (
+        <Row name={cf < suggested ? "Suggested cf" : "Least cf for about 45°"} testId="fig-suggested-cf">
           {fmt(suggested, "farad")}
         </Row>
       )}

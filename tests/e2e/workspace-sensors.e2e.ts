@@ -62,6 +62,8 @@ describe.skipIf(ctx.skip !== null)("a sensor source in the workspace (production
     await expect.poll(() => finding.count(), { timeout: 15_000 }).toBe(0);
     await expect.poll(async () => parseFloat((await margin.textContent()) ?? "NaN")).toBeGreaterThan(45);
     await expect(page.getByTestId("use-suggested-cf").count()).resolves.toBe(0);
+    // with cf at the rule's value it is no longer offered as a change, only as the least cf for the margin
+    await expect.poll(() => page.getByTestId("loop-figures").textContent()).toMatch(/Least cf for about 45°\s*22(\.0)? pF/);
     await waitForSaveState(page, "saved");
     const saved = await serverChain(page, id);
     expect(saved.document.nodes.find((n) => n.id === "u1")!.params.cf).toBeCloseTo(22e-12, 18);
