@@ -223,7 +223,7 @@ const SpreadResults = memo(function SpreadResults({ result, chain }: { result: S
             <div className="grid grid-cols-2 gap-2" data-testid="spread-histograms">
               {(["dcGain", "f0", "q", "margin"] as SpreadMetric[]).map((m) => {
                 const st = stage[m];
-                return st && st.count > 0 ? <StatHistogram key={m} metric={m} stat={st} /> : null;
+                return st && st.count > 0 ? <StatHistogram key={m} metric={m} stat={st} label={figureWordsFor(chain)(stage.id, m)} /> : null;
               })}
             </div>
           )}
@@ -235,7 +235,7 @@ const SpreadResults = memo(function SpreadResults({ result, chain }: { result: S
   );
 });
 
-function StatHistogram({ metric, stat }: { metric: SpreadMetric; stat: SpreadStat }) {
+function StatHistogram({ metric, stat, label }: { metric: SpreadMetric; stat: SpreadStat; label: string }) {
   return (
     <div>
       <Histogram
@@ -243,7 +243,7 @@ function StatHistogram({ metric, stat }: { metric: SpreadMetric; stat: SpreadSta
         lo={stat.histogram.lo}
         hi={stat.histogram.hi}
         nominal={stat.nominal}
-        label={METRIC_WORDS[metric]}
+        label={label}
         format={(v) => formatMetric(metric, v)}
         testId={`spread-hist-${metric}`}
       />
@@ -254,14 +254,18 @@ function StatHistogram({ metric, stat }: { metric: SpreadMetric; stat: SpreadSta
   );
 }
 
-function WorstCaseTable({ result, chain }: { result: SpreadResult; chain: Chain | null }) {
-  const rows = result.worstCase;
+/** A figure's name; a front end's DC gain is per ampere or coulomb of the sensor, and the name says so. */
+function figureWordsFor(chain: Chain | null) {
   const sourceKind = chain?.nodes.find((n) => isSourceKind(n.kind))?.kind as SourceKind | undefined;
-  // a front end's DC gain is per ampere or coulomb of the sensor: the figure says so
-  const figureWords = (nodeId: string, metric: SpreadMetric) => {
+  return (nodeId: string, metric: SpreadMetric) => {
     const per = metric === "dcGain" ? stageGainPerUnit(chain?.nodes.find((n) => n.id === nodeId)?.kind ?? "", sourceKind) : "V";
     return per === "V" ? METRIC_WORDS[metric] : `${METRIC_WORDS[metric]} (V/${per})`;
   };
+}
+
+function WorstCaseTable({ result, chain }: { result: SpreadResult; chain: Chain | null }) {
+  const rows = result.worstCase;
+  const figureWords = figureWordsFor(chain);
   return (
     <section aria-label="Worst case">
       <h3 className="text-[12.5px] font-medium">Worst case: every part at the end of its tolerance that pushes the figure down, then up</h3>
