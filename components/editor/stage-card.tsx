@@ -95,12 +95,16 @@ function StageLine({ stage, pending }: { stage: StageResult | undefined; pending
   if (!stage) return pending ? <p aria-hidden className="num invisible mt-1 text-[10.5px]">gain</p> : null;
   // a front end's gain is per ampere or coulomb of the sensor (a TIA's −800 kV/A)
   const per = stageGainPerUnit(stage.kind, sourceKind);
+  // a stage that blocks DC (high-pass, charge amplifier) is shown by what it does in the band
+  const inBand = stage.dcGain === 0 && typeof stage.bandGain === "number" && stage.bandGain > 0 ? stage.bandGain : null;
   const gain =
     stage.dcGain === null
       ? "DC gain unbounded"
-      : per !== "V" && stage.dcGain !== 0
-        ? `gain ${fmtGain(stage.dcGain, per).replace(/ \(.*$/, "")}`
-        : `gain ${stage.dcGain < 0 ? "−" : ""}${fmtCompact(Math.abs(stage.dcGain), "none")}`;
+      : inBand !== null
+        ? `in band ${fmtGain(inBand, per).replace(/ \(.*$/, "")}`
+        : per !== "V" && stage.dcGain !== 0
+          ? `gain ${fmtGain(stage.dcGain, per).replace(/ \(.*$/, "")}`
+          : `gain ${stage.dcGain < 0 ? "−" : ""}${fmtCompact(Math.abs(stage.dcGain), "none")}`;
   const corner = stage.f0 === null ? "" : stage.q === null ? ` · fc ${fmt(stage.f0, "hertz")}` : ` · f0 ${fmt(stage.f0, "hertz")} Q ${stage.q.toFixed(2)}`;
   return <p className="num mt-1 text-[10.5px] text-graphite-700">{gain + corner}</p>;
 }

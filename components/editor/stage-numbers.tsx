@@ -89,6 +89,9 @@ function StageFigures({ stage, railsOf, perUnit }: { stage: StageResult; railsOf
       )}
       <dl className="grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 text-[12.5px]">
         <Row name="DC gain" testId="fig-gain">{fmtGain(stage.dcGain, perUnit)}</Row>
+        {typeof stage.bandGain === "number" && Math.abs(stage.bandGain - Math.abs(stage.dcGain ?? 0)) > 1e-3 * stage.bandGain && (
+          <Row name="Largest gain in the band" testId="fig-band-gain">{fmtGain(stage.bandGain, perUnit)}</Row>
+        )}
         {stage.f0 !== null && (
           <Row name={stage.q === null ? "Corner" : "f0 · Q"} testId="fig-f0q">
             {fmt(stage.f0, "hertz")}

@@ -385,6 +385,8 @@ export interface StageResult {
   label?: string;
   /** DC gain from the stage's input terminal to its output, V/V; null when unbounded */
   dcGain: number | null;
+  /** the stage's own largest |gain| over the source band, as loaded in place (extra field; see lib/engine/README.md) */
+  bandGain?: number | null;
   /** Hz */
   f0: number | null;
   q: number | null;

@@ -123,6 +123,11 @@ export interface NodeFigures {
   gain: number | null; // max |H_src→node| over the source band
   slope: number | null; // max 2πf·|H| over the band, 1/s
   plusGain: number | null; // max |H_src→(+)| over the band
+  /**
+   * max of the node's own |H| (as loaded in place, per unit of what feeds it) over the band; searched only
+   * for the full set (not with `only`). What a stage with DC gain 0 (high-pass, charge amplifier) does.
+   */
+  own: number | null;
 }
 
 /**
@@ -144,8 +149,10 @@ export function bandFigures(cc: CompiledChain, fLow: number, fHigh: number, tol?
     return ratioMagAt(model.vin.p, model.den, TWO_PI * f);
   };
   const n = cc.nodeIds.length;
-  // what each search maximises: 0 |H| of node i, 1 2πf·|H| of node i, 2 |H| at the (+) pin of stage i
-  const searches: { grid: Float64Array; values: Float64Array; what: 0 | 1 | 2; node: number }[] = [];
+  // what each search maximises: 0 |H| of node i, 1 2πf·|H| of node i, 2 |H| at the (+) pin of stage i,
+  // 3 node i's own |H| (in the same batched steps: no sweep of its own)
+  const own = (r: SweepResult, i: number, k: number) => Math.hypot(r.indRe[i][k], r.indIm[i][k]);
+  const searches: { grid: Float64Array; values: Float64Array; what: 0 | 1 | 2 | 3; node: number }[] = [];
   for (let i = 0; i < n; i++) {
     if (only && !only[i]) continue;
     const g = new Float64Array(grid.length);
@@ -155,6 +162,7 @@ export function bandFigures(cc: CompiledChain, fLow: number, fHigh: number, tol?
       const sl = new Float64Array(grid.length);
       for (let k = 0; k < grid.length; k++) sl[k] = grid[k] === 0 ? 0 : TWO_PI * grid[k] * g[k];
       searches.push({ grid, values: sl, what: 1, node: i });
+      searches.push({ grid, values: Float64Array.from(grid, (_, k) => own(sw, i, k)), what: 3, node: i });
     }
     if (cc.models[i]) {
       const p = cc.topology.parent[i];
@@ -173,14 +181,16 @@ export function bandFigures(cc: CompiledChain, fLow: number, fHigh: number, tol?
       const f = freqs[c];
       if (s.what === 0) out[c] = mag(step, s.node, c);
       else if (s.what === 1) out[c] = TWO_PI * f * mag(step, s.node, c);
+      else if (s.what === 3) out[c] = own(step, s.node, c);
       else out[c] = mag(step, cc.topology.parent[s.node], c) * plusRatio(s.node, f);
     }
   }, tol);
-  const out: NodeFigures[] = Array.from({ length: n }, () => ({ gain: null, slope: null, plusGain: null }));
+  const out: NodeFigures[] = Array.from({ length: n }, () => ({ gain: null, slope: null, plusGain: null, own: null }));
   searches.forEach((s, j) => {
     const v = finite(peaks[j].value);
     if (s.what === 0) out[s.node].gain = v;
     else if (s.what === 1) out[s.node].slope = v;
+    else if (s.what === 3) out[s.node].own = v;
     else out[s.node].plusGain = v;
   });
   return out;
@@ -242,6 +252,7 @@ export function analyzeChain(chain: Chain, opts: AnalyzeOptions = {}): AnalysisR
       dcGain: op.stageGain[i],
       f0: ideal.f0,
       q: ideal.q,
+      bandGain: figures.own,
       dcOut,
       acPeak,
       peakOut,

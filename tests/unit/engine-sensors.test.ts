@@ -57,6 +57,19 @@ describe("ideal H(s) of the new kinds against their closed forms", () => {
     const bare = analyzeChain(line([photodiode(), op("t", "transimpedance", { rf: 1e6, cf: 0 }), adc("adc")])).paths[0].stages.find((s) => s.id === "t")!;
     expect(bare.f0).toBeNull();
   });
+  it("each stage's own gain over the band (bandGain): 1/cf for a charge amplifier, whose DC gain is 0; K for a Sallen-Key high-pass well above f0 (derived from their H(s))", () => {
+    // charge amp, ideal op-amp: |H| = (1/cf)·ωτ/√(1 + (ωτ)²), τ = rf·cf = 1 s, largest at the band's top (2 kHz)
+    const q = analyzeChain(line([piezo({ fLow: 2, fHigh: 2e3 }), op("q", "chargeAmp", { cf: 1e-9, rf: 1e9 }), adc("adc")])).paths[0].stages.find((s) => s.id === "q")!;
+    const wt = TAU * 2e3 * 1;
+    expect(q.dcGain).toBe(0);
+    expect(q.bandGain! / (1e9 * (wt / Math.hypot(1, wt)))).toBeCloseTo(1, 9);
+    // Sallen-Key high-pass, equal capacitors, gain K = 1 + rf/rg = 2: f0 = 1/(2π·√(r1r2)·c) = 1.13 kHz;
+    // a band from 100 kHz to 1 MHz sees the asymptote K (within (f0/f)² of it)
+    const hp = { id: "src", kind: "source", params: { dc: 0, dcSpread: 0, amplitude: 0.1, fLow: 1e5, fHigh: 1e6, resistance: 0, noiseDensity: 0, safety } } as ChainNode;
+    const sk = analyzeChain(line([hp, op("h", "sallenKeyHighpass", { c1: 1e-8, c2: 1e-8, r1: 1e4, r2: 2e4, rf: 1e4, rg: 1e4 }), adc("adc")])).paths[0].stages.find((s) => s.id === "h")!;
+    expect(sk.dcGain).toBe(0);
+    expect(sk.bandGain! / 2).toBeCloseTo(1, 3);
+  });
   it("difference amplifier: gain r2/r1 with r4/r3 = r2/r1 and no legs; 0 common-mode gain (derived from the two dividers)", () => {
     const ch = line([bridge({ resistance: 1e-9 }), op("d", "differenceAmp", { r1: 1e4, r2: 1e5, r3: 1e4, r4: 1e5 })]);
     expect(at(ch, "d", 1).re).toBeCloseTo(10, 6);
