@@ -39,7 +39,7 @@ export function stageGainPerUnit(stageKind: string, sourceKind: AnySourceNode["k
  * plain ratio. Voltage and differential sources give V/V.
  */
 export function transferPerUnit(output: SourceOutput): "V" | "A" | "C" {
-  return output === "current" ? "A" : output === "charge" ? "C" : "V";
+  return OUTPUT_UNIT[output];
 }
 
 /** "dB", or "dB re 1 V/A" and "dB re 1 V/C" for a transfer from a current or charge source. */
@@ -74,7 +74,7 @@ export interface SourceSignal {
 }
 
 /** The unit word of a source's output quantity, for messages. */
-export const OUTPUT_UNIT: Readonly<Record<SourceOutput, string>> = { voltage: "V", differential: "V", current: "A", charge: "C" };
+export const OUTPUT_UNIT: Readonly<Record<SourceOutput, "V" | "A" | "C">> = { voltage: "V", differential: "V", current: "A", charge: "C" };
 
 export function isDifferentialSource(kind: unknown): boolean {
   return (DIFFERENTIAL_SOURCE_KINDS as readonly unknown[]).includes(kind);

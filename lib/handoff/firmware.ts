@@ -97,7 +97,7 @@ export function buildFirmwareScaling(chain: Chain, result: AnalysisResult): Scal
   const fHigh = sig ? sig.fHigh : 1;
   const sensitivity = sig && typeof sig.sensitivity === "number" && sig.sensitivity !== 0 ? sig.sensitivity : null;
   const unit = sig?.unit ?? "";
-  const sourceUnit = (sig ? OUTPUT_UNIT[sig.output] : "V") as FirmwareScaling["sourceUnit"];
+  const sourceUnit: FirmwareScaling["sourceUnit"] = sig ? OUTPUT_UNIT[sig.output] : "V";
 
   for (const path of result.paths) {
     const adcRes = path.adc;
