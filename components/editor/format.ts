@@ -15,6 +15,14 @@ function perSensorUnit(v: number, perUnit: "A" | "C"): string {
   return /[a-zA-Zµ]$/.test(q) ? `${q}V/${perUnit}` : `${q} V/${perUnit}`;
 }
 
+/** A gain's value with its sign: a plain ratio (`digits` significant), or with V/A or V/C (−800.0 kV/A). */
+export function fmtGainValue(g: number, perUnit: "V" | "A" | "C" = "V", digits = 4): string {
+  return `${g < 0 ? "−" : ""}${perUnit === "V" ? fmtCompact(Math.abs(g), "none", digits) : perSensorUnit(Math.abs(g), perUnit)}`;
+}
+
+/** A figure's name with what it is per when that is not a plain ratio: "DC gain (V/A)". */
+export const perUnitName = (name: string, perUnit: "V" | "A" | "C"): string => (perUnit === "V" ? name : `${name} (V/${perUnit})`);
+
 /**
  * A gain with its sign and in dB: a plain ratio (−10.0, 20.0 dB), or per ampere or coulomb of the sensor
  * for a front end or a whole path from a photodiode or piezo (−800.0 kV/A, 118.1 dB re 1 V/A).
@@ -25,8 +33,7 @@ export function fmtGain(g: number | null | undefined, perUnit: "V" | "A" | "C" =
   if (!Number.isFinite(g)) return "—";
   const ref = perUnit === "V" ? "dB" : `dB re 1 V/${perUnit}`;
   const db = g === 0 ? `−∞ ${ref}` : `${(20 * Math.log10(Math.abs(g))).toFixed(1)} ${ref}`;
-  const value = perUnit === "V" ? fmtCompact(Math.abs(g), "none", 4) : perSensorUnit(Math.abs(g), perUnit);
-  return `${g < 0 ? "−" : ""}${value} (${db.replace("-", "−")})`;
+  return `${fmtGainValue(g, perUnit)} (${db.replace("-", "−")})`;
 }
 
 export const fmtDb = (db: number | null | undefined, digits = 1): string =>

@@ -14,7 +14,7 @@ import type { AdcResult, StageResult } from "@/lib/chain/types";
 import type { StageFlowNode } from "./flow-types";
 import { Pictogram } from "./pictograms";
 import { RailSpan } from "./rail-span";
-import { fmt, fmtCompact, fmtGain } from "./format";
+import { fmt, fmtCompact, fmtGainValue } from "./format";
 import { useSourceKind } from "./stage-figures";
 import { stageGainPerUnit } from "@/lib/engine/sensors";
 
@@ -101,10 +101,10 @@ function StageLine({ stage, pending }: { stage: StageResult | undefined; pending
     stage.dcGain === null
       ? "DC gain unbounded"
       : inBand !== null
-        ? `in band ${fmtGain(inBand, per).replace(/ \(.*$/, "")}`
+        ? `in band ${fmtGainValue(inBand, per)}`
         : per !== "V" && stage.dcGain !== 0
-          ? `gain ${fmtGain(stage.dcGain, per).replace(/ \(.*$/, "")}`
-          : `gain ${stage.dcGain < 0 ? "−" : ""}${fmtCompact(Math.abs(stage.dcGain), "none")}`;
+          ? `gain ${fmtGainValue(stage.dcGain, per)}`
+          : `gain ${fmtGainValue(stage.dcGain, "V", 3)}`;
   const corner = stage.f0 === null ? "" : stage.q === null ? ` · fc ${fmt(stage.f0, "hertz")}` : ` · f0 ${fmt(stage.f0, "hertz")} Q ${stage.q.toFixed(2)}`;
   return <p className="num mt-1 text-[10.5px] text-graphite-700">{gain + corner}</p>;
 }

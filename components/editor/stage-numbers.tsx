@@ -34,6 +34,7 @@ export function StageNumbers({ node }: { node: DraftNode }) {
   const reason = useEditor((s) => s.live?.reasonById[node.id]);
   const warnings = useEditor((s) => s.live?.warningsByNode[node.id]);
   const sourceKind = useSourceKind();
+  const pathUnit = sourceKind ? transferPerUnit(sourceOutputOf(sourceKind)) : "V";
 
   if (isSourceKind(node.kind)) return null;
   if (!stage && !adc) {
@@ -53,7 +54,7 @@ export function StageNumbers({ node }: { node: DraftNode }) {
         <dl className="grid grid-cols-[1fr_auto] gap-x-3 gap-y-0.5 text-[12.5px]">
           <Row name="LSB">{fmt(adc.lsb, "volt")}</Row>
           <Row name="Range used">{adc.rangeUse === null ? "—" : `${(adc.rangeUse * 100).toFixed(1)} %`}</Row>
-          <Row name="Path DC gain">{fmtGain(adc.pathDcGain, sourceKind ? transferPerUnit(sourceOutputOf(sourceKind)) : "V")}</Row>
+          <Row name="Path DC gain">{fmtGain(adc.pathDcGain, pathUnit)}</Row>
           <Row name="Alias attenuation">{fmtDb(adc.aliasAttenuationDb)}</Row>
           <Row name="Ideal SNR">{fmtDb(adc.idealSnrDb)}</Row>
           <Row name="SNR">{fmtDb(adc.snrDb)}</Row>

@@ -4,9 +4,8 @@
  * response plots are drawn in the browser (ReportPlots).
  */
 import type { ReactNode } from "react";
-import type { AnalysisResult, Chain, SourceKind } from "@/lib/chain/types";
-import { isSourceKind } from "@/lib/chain/types";
-import { ENGINE_VERSION, stageGainPerUnit } from "@/lib/engine";
+import type { AnalysisResult, Chain } from "@/lib/chain/types";
+import { ENGINE_VERSION, stageGainUnits } from "@/lib/engine";
 import {
   buildBom,
   buildBringUpSheet,
@@ -81,8 +80,7 @@ export function DesignReport(p: ReportProps) {
   const curves = pathCurves(chain, result);
   const spread = reportSpread(chain);
   const names = new Map(chain.nodes.map((n) => [n.id, n.label ? `${n.id} ${n.label}` : n.id]));
-  const sourceKind = chain.nodes.find((n) => isSourceKind(n.kind))?.kind as SourceKind | undefined;
-  const gainUnits = new Map(chain.nodes.map((n) => [n.id, stageGainPerUnit(n.kind, sourceKind)]));
+  const gainUnits = stageGainUnits(chain.nodes);
   return (
     <article className="design-report mx-auto max-w-[52rem] bg-white text-[12.5px] leading-snug text-graphite-900" data-paper={p.paper} data-testid="design-report">
       <header className="report-keep">

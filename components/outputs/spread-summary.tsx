@@ -5,7 +5,7 @@
  */
 import type { SpreadMetric } from "@/lib/engine/spread";
 import type { SpreadSummary } from "@/lib/handoff";
-import { fmt, fmtVolts } from "@/components/editor/format";
+import { fmt, fmtVolts, perUnitName } from "@/components/editor/format";
 import { ReportTable, td, tdText } from "./report-table";
 
 const FIGURE_WORDS: Record<SpreadMetric, string> = { dcGain: "DC gain", f0: "corner / f0", q: "Q", margin: "worst margin" };
@@ -40,10 +40,7 @@ export function spreadMethod(s: SpreadSummary): string {
  * photodiode's current or a piezo's charge); the figure's name says it when it is not a plain ratio.
  */
 export function SpreadSummaryView({ summary: s, names, gainUnits }: { summary: SpreadSummary; names: Map<string, string>; gainUnits?: Map<string, "V" | "A" | "C"> }) {
-  const figureName = (id: string, metric: SpreadMetric) => {
-    const per = metric === "dcGain" ? (gainUnits?.get(id) ?? "V") : "V";
-    return per === "V" ? FIGURE_WORDS[metric] : `${FIGURE_WORDS[metric]} (V/${per})`;
-  };
+  const figureName = (id: string, metric: SpreadMetric) => perUnitName(FIGURE_WORDS[metric], metric === "dcGain" ? (gainUnits?.get(id) ?? "V") : "V");
   const name = (id: string | null) => (id === null ? "—" : (names.get(id) ?? id));
   const rows = s.stages.filter((st) => st.figures.length > 0);
   return (

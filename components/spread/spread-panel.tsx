@@ -6,15 +6,14 @@
  * tolerance moves each figure, and the share of builds that clip. Every number is the engine's.
  */
 import { memo, useDeferredValue, useEffect, useMemo, useRef, useState } from "react";
-import type { Chain, SourceKind } from "@/lib/chain/types";
-import { isSourceKind } from "@/lib/chain/types";
-import { stageGainPerUnit } from "@/lib/engine/sensors";
+import type { Chain } from "@/lib/chain/types";
+import { stageGainUnits } from "@/lib/engine/sensors";
 import type { SpreadDistribution, SpreadMetric, SpreadResult, SpreadStat } from "@/lib/engine/spread";
 import { SPREAD_LIMITS } from "@/lib/engine/spread";
 import { useEditor } from "@/lib/store/editor-context";
 import { createSpreadClient, type SpreadClient } from "@/lib/store/spread-client";
 import type { SpreadMessage } from "@/lib/store/spread-protocol";
-import { fmt, fmtCompact, fmtVolts } from "@/components/editor/format";
+import { fmt, fmtCompact, fmtVolts, perUnitName } from "@/components/editor/format";
 import { Histogram, LogFreqPlot } from "./svg-plots";
 import { SnapPanel } from "./snap-panel";
 
@@ -256,11 +255,8 @@ function StatHistogram({ metric, stat, label }: { metric: SpreadMetric; stat: Sp
 
 /** A figure's name; a front end's DC gain is per ampere or coulomb of the sensor, and the name says so. */
 function figureWordsFor(chain: Chain | null) {
-  const sourceKind = chain?.nodes.find((n) => isSourceKind(n.kind))?.kind as SourceKind | undefined;
-  return (nodeId: string, metric: SpreadMetric) => {
-    const per = metric === "dcGain" ? stageGainPerUnit(chain?.nodes.find((n) => n.id === nodeId)?.kind ?? "", sourceKind) : "V";
-    return per === "V" ? METRIC_WORDS[metric] : `${METRIC_WORDS[metric]} (V/${per})`;
-  };
+  const units = chain ? stageGainUnits(chain.nodes) : null;
+  return (nodeId: string, metric: SpreadMetric) => perUnitName(METRIC_WORDS[metric], metric === "dcGain" ? (units?.get(nodeId) ?? "V") : "V");
 }
 
 function WorstCaseTable({ result, chain }: { result: SpreadResult; chain: Chain | null }) {

@@ -26,5 +26,5 @@ export {
   stimulusWave,
 } from "./time-domain";
 export type { ClipSpan, NodeTrace, RunOptions, Stimulus, TimeDomainPlan, WaveformRun } from "./time-domain";
-export { sourceSignal, sourceOutputOf, stageGainPerUnit, transferPerUnit, magnitudeDbLabel, bridgeOutput, bridgeFullScaleVolts, tiaStability, differenceAmpGains, differenceAmpCmSpread } from "./sensors";
+export { sourceSignal, sourceOutputOf, stageGainPerUnit, stageGainUnits, chainSourceUnit, transferPerUnit, magnitudeDbLabel, bridgeOutput, bridgeFullScaleVolts, tiaStability, differenceAmpGains, differenceAmpCmSpread } from "./sensors";
 export type { SourceSignal, SourceOutput, TiaStability } from "./sensors";

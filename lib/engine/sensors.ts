@@ -33,6 +33,18 @@ export function stageGainPerUnit(stageKind: string, sourceKind: AnySourceNode["k
   return sourceKind && (stageKind === "transimpedance" || stageKind === "chargeAmp") ? transferPerUnit(sourceOutputOf(sourceKind)) : "V";
 }
 
+/** What a chain's transfer from its source is per (V, A or C), from the source's kind; V with no source. */
+export function chainSourceUnit(nodes: readonly { kind: string }[]): "V" | "A" | "C" {
+  const src = nodes.find((n) => isSourceKind(n.kind));
+  return src ? transferPerUnit(sourceOutputOf(src.kind as AnySourceNode["kind"])) : "V";
+}
+
+/** Each node's gain unit (stageGainPerUnit with the chain's own source), by node id. */
+export function stageGainUnits(nodes: readonly { id: string; kind: string }[]): Map<string, "V" | "A" | "C"> {
+  const src = nodes.find((n) => isSourceKind(n.kind))?.kind as AnySourceNode["kind"] | undefined;
+  return new Map(nodes.map((n) => [n.id, stageGainPerUnit(n.kind, src)]));
+}
+
 /**
  * The unit a chain's transfer from its source is per: a cascade from a photodiode is in volts per ampere
  * and from a piezo in volts per coulomb, so its magnitude in dB is relative to 1 V/A or 1 V/C, not a

@@ -4,8 +4,7 @@
  */
 import Papa from "papaparse";
 import type { AnalysisResult, Chain } from "../chain/types";
-import { compileChain, magnitudeDbLabel, sourceSignal, transferPerUnit } from "../engine";
-import { isSourceKind } from "../chain/types";
+import { chainSourceUnit, compileChain, magnitudeDbLabel } from "../engine";
 import { formatQuantity } from "../units";
 import type { Bom } from "./bom";
 import type { BringUpSheet } from "./bring-up";
@@ -98,8 +97,7 @@ export function plotCsv(chain: Chain, result: AnalysisResult, table: PlotTable):
   const index = new Map(cc.nodeIds.map((id, i) => [id, i]));
   const nodes = signalOrder(chain).filter((n) => !isFeed(chain, n) && index.has(n.id));
   // from a current or charge source the cascade is in V/A or V/C, and the column says what its dB are relative to
-  const src = chain.nodes.find((n) => isSourceKind(n.kind));
-  const mag = `magnitude_${magnitudeDbLabel(src ? transferPerUnit(sourceSignal(src).output) : "V")}`;
+  const mag = `magnitude_${magnitudeDbLabel(chainSourceUnit(chain.nodes))}`;
   const fields = ["frequency_Hz", ...nodes.flatMap((n) => [`${nodeTitle(n)} ${mag}`, `${nodeTitle(n)} phase_deg`])];
   const rows = f.map((fk, k) => {
     const row: Cell[] = [fk];
